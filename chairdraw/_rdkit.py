@@ -1,0 +1,89 @@
+"""The one place that knows RDKit's quirks.
+
+* The stereo perception mode is fixed once, at import, because the legacy and the new mode give
+  different canonical SMILES for the same molecule (and the new one keeps dependent ring centres).
+* RDKit writes its messages (and C++ stack traces) straight to file descriptor 2. We keep it quiet
+  and, only when a parser has failed, parse again with the descriptor redirected, so that the
+  message can be turned into one of ours.
+"""
+
+from __future__ import annotations
+
+import os
+import re
+import tempfile
+from collections.abc import Callable
+from typing import TypeVar
+
+from rdkit import Chem, RDLogger, rdBase
+
+T = TypeVar("T")
+
+Chem.SetUseLegacyStereoPerception(False)
+RDLogger.DisableLog("rdApp.*")  # type: ignore[attr-defined]
+
+RDKIT_VERSION = rdBase.rdkitVersion
+
+_STAMP = re.compile(r"^\[\d\d:\d\d:\d\d\]\s?")
+
+
+def captured(call: Callable[[], T]) -> tuple[T | None, list[str]]:
+    """Run ``call`` with RDKit's log switched on and fd 2 captured; return (result, messages).
+
+    Exceptions raised by RDKit are caught and their text joins the messages, the result then
+    being None. Used only on the slow path after a parser has failed.
+    """
+    RDLogger.EnableLog("rdApp.error")  # type: ignore[attr-defined]
+    RDLogger.EnableLog("rdApp.warning")  # type: ignore[attr-defined]
+    result: T | None = None
+    messages: list[str] = []
+    with tempfile.TemporaryFile(mode="w+b") as sink:
+        saved = os.dup(2)
+        try:
+            os.dup2(sink.fileno(), 2)
+            try:
+                result = call()
+            except Exception as exc:  # RDKit raises assorted C++-wrapped types
+                messages.append(str(exc))
+        finally:
+            os.dup2(saved, 2)
+            os.close(saved)
+            RDLogger.DisableLog("rdApp.*")  # type: ignore[attr-defined]
+        sink.seek(0)
+        text = sink.read().decode("utf-8", "replace").replace("\x00", "")
+    messages = [*_useful_lines(text), *messages]
+    return result, messages
+
+
+def _useful_lines(text: str) -> list[str]:
+    """Keep RDKit's own sentences; drop stack traces, banners and time stamps."""
+    lines = []
+    in_trace = False
+    for raw in text.splitlines():
+        line = _STAMP.sub("", raw).rstrip()
+        if line.startswith("Stacktrace:"):
+            in_trace = True
+            continue
+        if in_trace:
+            if line.startswith("----------"):
+                in_trace = False
+            continue
+        if not line.strip() or line.strip("*-") == "" or line.startswith(("Violation occurred", "Failed Expression")):
+            continue
+        if line in ("Post-condition Violation", "Pre-condition Violation", "Invariant Violation"):
+            continue
+        lines.append(line)
+    # the same sentence often comes twice (once in the banner, once after it)
+    seen: list[str] = []
+    for line in lines:
+        if line not in seen:
+            seen.append(line)
+    return seen
+
+
+def standard_inchi(mol: Chem.Mol) -> str:
+    """Standard InChI, the identity we compare structures by ('' when InChI refuses the molecule)."""
+    try:
+        return Chem.MolToInchi(mol) or ""
+    except Exception:
+        return ""

@@ -1,0 +1,1 @@
+"""Conformational energies of the two chairs: tables, interaction terms, equilibrium."""

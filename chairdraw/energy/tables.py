@@ -1,0 +1,142 @@
+"""The shipped data tables, loaded once into frozen, sourced objects.
+
+Files live in ``chairdraw/data``: pipe-separated text with '#' comments and a header line, so that
+a chemist can read and extend them with any editor. Every number carries a source key that
+resolves to a citation in ``sources.txt``.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import cache
+from importlib import resources
+
+from ..errors import DataFileError
+
+
+@dataclass(frozen=True)
+class Source:
+    key: str
+    citation: str
+    status: str  # C, C2, M, estimate, placeholder
+
+    @property
+    def from_memory(self) -> bool:
+        return self.status == "M"
+
+
+@dataclass(frozen=True)
+class AValue:
+    label: str
+    group: str  # substituent SMILES with '*' for the ring atom, as written in the file
+    aprotic: float
+    protic: float | None
+    context: str | None
+    sources: tuple[str, ...]
+    note: str
+
+    def value(self, solvent: str) -> float:
+        if solvent == "protic" and self.protic is not None:
+            return self.protic
+        return self.aprotic
+
+
+@dataclass(frozen=True)
+class SubstituentClass:
+    name: str
+    smarts: str
+    representative: str  # label of an AValue row
+    pair_class: str
+
+
+@dataclass(frozen=True)
+class PairTerm:
+    term: str  # syn-diaxial, gauche, anomeric
+    a: str
+    b: str
+    value: float
+    source: str
+    note: str
+
+
+def _rows(name: str) -> list[tuple[int, dict[str, str]]]:
+    text = resources.files("chairdraw").joinpath("data", name).read_text(encoding="utf-8")
+    header: list[str] | None = None
+    rows = []
+    for number, raw in enumerate(text.splitlines(), start=1):
+        line = raw.strip()
+        if not line or line.startswith("#"):
+            continue
+        cells = [c.strip() for c in line.split("|")]
+        if header is None:
+            header = cells
+            continue
+        if len(cells) != len(header):
+            raise DataFileError(f"{name}, line {number}: {len(cells)} fields, the header has {len(header)}")
+        rows.append((number, dict(zip(header, cells))))
+    return rows
+
+
+def _number(name: str, line: int, text: str) -> float:
+    try:
+        return float(text)
+    except ValueError:
+        raise DataFileError(f"{name}, line {line}: {text!r} is not a number") from None
+
+
+@cache
+def sources() -> dict[str, Source]:
+    return {r["key"]: Source(r["key"], r["citation"], r["status"]) for _, r in _rows("sources.txt")}
+
+
+@cache
+def avalues() -> tuple[AValue, ...]:
+    known = sources()
+    out = []
+    for line, r in _rows("avalues.txt"):
+        keys = tuple(k.strip() for k in r["source"].split(";") if k.strip())
+        for k in keys:
+            if k not in known:
+                raise DataFileError(f"avalues.txt, line {line}: unknown source {k!r}")
+        out.append(
+            AValue(
+                label=r["label"],
+                group=r["group"],
+                aprotic=_number("avalues.txt", line, r["aprotic"]),
+                protic=None if r["protic"] == "-" else _number("avalues.txt", line, r["protic"]),
+                context=None if r["context"] == "-" else r["context"],
+                sources=keys,
+                note=r["note"],
+            )
+        )
+    return tuple(out)
+
+
+@cache
+def classes() -> tuple[SubstituentClass, ...]:
+    labels = {a.label for a in avalues()}
+    out = []
+    for line, r in _rows("classes.txt"):
+        if r["representative"] not in labels:
+            raise DataFileError(f"classes.txt, line {line}: unknown representative {r['representative']!r}")
+        out.append(SubstituentClass(r["class"], r["smarts"], r["representative"], r["pair_class"]))
+    return tuple(out)
+
+
+@cache
+def pair_terms() -> tuple[PairTerm, ...]:
+    known = sources()
+    out = []
+    for line, r in _rows("pairs.txt"):
+        if r["source"] not in known:
+            raise DataFileError(f"pairs.txt, line {line}: unknown source {r['source']!r}")
+        out.append(PairTerm(r["term"], r["a"], r["b"], _number("pairs.txt", line, r["value"]), r["source"], r["note"]))
+    return tuple(out)
+
+
+def citation(keys: tuple[str, ...] | str) -> str:
+    """Full citation text for one or several source keys."""
+    if isinstance(keys, str):
+        keys = (keys,)
+    table = sources()
+    return "; ".join(table[k].citation for k in keys)

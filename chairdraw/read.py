@@ -1,0 +1,280 @@
+"""Structure text or file -> ``Structure``.
+
+The single place that calls RDKit's parsers. Formats: SMILES, CXSMILES (enhanced stereo, wedges
+with coordinates), MDL molfile V2000/V3000, SDF (the first record, said so in a note) and standard
+InChI. The format is sniffed from the text unless the caller names it.
+
+Atom numbering is kept exactly as in the input (hydrogens written in a molfile stay atoms), so that
+every atom index in a report points at the atom the chemist drew.
+"""
+
+from __future__ import annotations
+
+import os
+import re
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from rdkit import Chem
+
+from . import _rdkit, molcheck
+from .errors import FormatError, InputError
+
+FORMATS = ("smiles", "cxsmiles", "molfile", "sdf", "inchi")
+
+_ARGUMENT = "argument"
+
+
+@dataclass(frozen=True)
+class StereoGroup:
+    """An enhanced-stereo group: 'absolute', 'and' (racemic) or 'or' (relative, one of two)."""
+
+    kind: str
+    atoms: tuple[int, ...]
+
+    def to_dict(self) -> dict:
+        return {"kind": self.kind, "atoms": list(self.atoms)}
+
+
+@dataclass(frozen=True)
+class Structure:
+    """A parsed structure: the RDKit molecule, where it came from and what it says about stereo."""
+
+    mol: Chem.Mol = field(repr=False, compare=False)
+    format: str
+    source: str = _ARGUMENT
+    record: str | None = None
+    notes: tuple[str, ...] = ()
+    stereo_groups: tuple[StereoGroup, ...] = ()
+    chiral_flag: int | None = None  # V2000 header flag: 1 absolute, 0 relative; None when absent
+
+    @property
+    def label(self) -> str:
+        return self.record or self.source
+
+    @property
+    def stereo_meaning(self) -> str:
+        """What the stereo of the input claims: 'absolute', 'relative', 'racemic' or 'mixed'."""
+        kinds = {g.kind for g in self.stereo_groups}
+        if not kinds:
+            return "relative" if self.chiral_flag == 0 else "absolute"
+        if kinds == {"and"}:
+            return "racemic"
+        if kinds == {"or"}:
+            return "relative"
+        if kinds == {"absolute"}:
+            return "absolute"
+        return "mixed"
+
+
+def read(
+    source: str | os.PathLike | Chem.Mol | Structure, format: str | None = None, record: str | None = None
+) -> Structure:
+    """Read a structure from text, a file path, an RDKit molecule or an existing Structure."""
+    if isinstance(source, Structure):
+        return source
+    if isinstance(source, Chem.Mol):
+        return Structure(mol=Chem.Mol(source), format="rdkit", source="RDKit molecule", record=record)
+    if format is not None and format not in FORMATS:
+        raise FormatError(f"unknown format {format!r}; choose one of {', '.join(FORMATS)}", record=record)
+    if isinstance(source, os.PathLike):
+        return read_file(Path(source), format=format, record=record)
+    text = str(source)
+    if "\n" not in text and text.strip() and _looks_like_path(text.strip()):
+        return read_file(Path(text.strip()), format=format, record=record)
+    return read_text(text, format=format, source=_ARGUMENT, record=record)
+
+
+def read_file(path: Path, format: str | None = None, record: str | None = None) -> Structure:
+    try:
+        text = path.read_text(encoding="utf-8", errors="replace")
+    except OSError as exc:
+        raise InputError(f"cannot open {str(path)!r}: {exc.strerror}", record=record or str(path)) from None
+    if format is None:
+        format = _format_from_suffix(path)
+    return read_text(text, format=format, source=str(path), record=record)
+
+
+def read_text(text: str, format: str | None = None, source: str = _ARGUMENT, record: str | None = None) -> Structure:
+    label = record or (source if source != _ARGUMENT else None)
+    if not text.strip():
+        raise InputError("the input is empty", record=label)
+    fmt = format or sniff(text)
+    if fmt in ("smiles", "cxsmiles"):
+        return _read_smiles(text, source, record, cx=fmt == "cxsmiles")
+    if fmt == "inchi":
+        return _read_inchi(text, source, record)
+    if fmt in ("molfile", "sdf"):
+        return _read_sdf_first(text, source, record)
+    raise FormatError(f"unknown format {fmt!r}", record=label)
+
+
+def sniff(text: str) -> str:
+    """Guess the format from the text itself."""
+    stripped = text.strip()
+    if stripped.startswith("InChI="):
+        return "inchi"
+    if "M  END" in text or "V2000" in text or "V3000" in text:
+        return "sdf" if "$$$$" in text else "molfile"
+    first = stripped.splitlines()[0]
+    if len(stripped.splitlines()) > 1:
+        raise FormatError(
+            "cannot tell the format: several lines, but no 'M  END' (molfile) and no 'InChI=' prefix; "
+            "give one structure, or name the format"
+        )
+    return "cxsmiles" if re.search(r"\s\|.*\|", first) else "smiles"
+
+
+_SUFFIXES = (".mol", ".sdf", ".sd", ".smi", ".inchi", ".txt", ".cxsmi")
+
+
+def _looks_like_path(text: str) -> bool:
+    # SMILES may hold '/' (double-bond stereo) and InChI always does: only an existing file or a
+    # structure-file suffix makes a path
+    if text.startswith("InChI="):
+        return False
+    return os.path.isfile(text) or text.lower().endswith(_SUFFIXES)
+
+
+def _format_from_suffix(path: Path) -> str | None:
+    return {".mol": "molfile", ".sdf": "sdf", ".sd": "sdf", ".inchi": "inchi"}.get(path.suffix.lower())
+
+
+# --- SMILES and CXSMILES -------------------------------------------------------------------------
+
+_CX_BLOCK = re.compile(r"^(\S+)(\s+\|[^|]*\|)?\s*(.*)$")
+_POSITION = re.compile(r"around position (\d+)")
+
+
+def _read_smiles(text: str, source: str, record: str | None, cx: bool) -> Structure:
+    line = text.strip().splitlines()[0].strip()
+    match = _CX_BLOCK.match(line)
+    assert match is not None  # the pattern accepts any non-empty line
+    smiles, extension, title = match.group(1), match.group(2) or "", match.group(3).strip()
+    record = record or title or None
+    params = Chem.SmilesParserParams()
+    # the RDKit stubs type these attributes wrongly
+    params.removeHs = False  # type: ignore[assignment]
+    params.allowCXSMILES = True  # type: ignore[assignment]
+    params.strictCXSMILES = True  # type: ignore[assignment]
+    parse_text = smiles + extension
+    mol = Chem.MolFromSmiles(parse_text, params)
+    if mol is None:
+        raise _smiles_error(parse_text, params, smiles, record or (source if source != _ARGUMENT else None))
+    notes = []
+    if extension and "w" in extension and mol.GetNumConformers() == 0:
+        notes.append("CXSMILES wedges without coordinates are ignored by the reader")
+    fmt = "cxsmiles" if extension else "smiles"
+    return Structure(mol=mol, format=fmt, source=source, record=record, notes=tuple(notes), stereo_groups=_groups(mol))
+
+
+def _smiles_error(parse_text: str, params: Chem.SmilesParserParams, smiles: str, record: str | None) -> InputError:
+    _, messages = _rdkit.captured(lambda: Chem.MolFromSmiles(parse_text, params))
+    sentences = [m.removeprefix("SMILES Parse Error: ") for m in messages if m.strip(" ~^") and m.strip() != smiles]
+    position = None
+    for m in messages:
+        found = _POSITION.search(m)
+        if found:
+            position = int(found.group(1))
+    reason = next((s for s in sentences if not s.startswith(("check for mistakes", "Failed parsing"))), None)
+    reason = reason or (sentences[0] if sentences else "RDKit could not parse it")
+    reason = re.sub(r"\s+for input: '.*'$", "", reason)
+    reason = re.sub(r"while parsing: .*$", "", reason).strip().rstrip(":")
+    detail = None
+    if position is not None:
+        detail = f"  {smiles}\n  {' ' * (position - 1)}^"
+    where = f" at position {position}" if position is not None else ""
+    return InputError(f"SMILES{where}: {reason}", record=record, detail=detail)
+
+
+# --- InChI ---------------------------------------------------------------------------------------
+
+
+def _read_inchi(text: str, source: str, record: str | None) -> Structure:
+    inchi = text.strip().split()[0]
+    mol = Chem.MolFromInchi(inchi, sanitize=True, removeHs=True)
+    if mol is None:
+        _, messages = _rdkit.captured(lambda: Chem.MolFromInchi(inchi))
+        useful = [m for m in messages if len(m.strip(" :")) > 8 and not m.strip().endswith(":")]
+        reason = "; ".join(useful) or "not a valid InChI (the InChI library could not read it)"
+        raise InputError(f"InChI: {reason}", record=record or (source if source != _ARGUMENT else None))
+    return Structure(mol=mol, format="inchi", source=source, record=record)
+
+
+# --- molfile and SDF -----------------------------------------------------------------------------
+
+
+def split_sdf(text: str) -> list[str]:
+    """Split SDF text into record texts ourselves, so a broken record keeps its title."""
+    records: list[str] = []
+    current: list[str] = []
+    for line in text.splitlines(keepends=True):
+        if line.rstrip("\r\n") == "$$$$":
+            records.append("".join(current))
+            current = []
+        else:
+            current.append(line)
+    if "".join(current).strip():
+        records.append("".join(current))
+    return records
+
+
+def _read_sdf_first(text: str, source: str, record: str | None) -> Structure:
+    records = split_sdf(text)
+    notes = []
+    if len(records) > 1:
+        notes.append(f"the file holds {len(records)} records; the first was taken")
+    structure = read_molblock(records[0], source=source, record=record)
+    if notes:
+        structure = Structure(**{**structure.__dict__, "notes": structure.notes + tuple(notes)})
+    return structure
+
+
+def read_molblock(block: str, source: str = _ARGUMENT, record: str | None = None) -> Structure:
+    """One molfile record (V2000 or V3000, data fields allowed after M  END)."""
+    title = block.splitlines()[0].strip() if block.splitlines() else ""
+    record = record or title or None
+    label = record or (source if source != _ARGUMENT else None)
+    molpart = block.split("M  END")[0] + "M  END\n" if "M  END" in block else block
+    mol = None
+    try:
+        mol = Chem.MolFromMolBlock(molpart, sanitize=True, removeHs=False, strictParsing=True)
+    except Exception:
+        mol = None
+    if mol is None:
+        problem = molcheck.diagnose(block)
+        if problem is None:
+            _, messages = _rdkit.captured(lambda: Chem.MolFromMolBlock(molpart, sanitize=True, removeHs=False))
+            problem = "; ".join(messages) or "RDKit could not read the connection table"
+        raise InputError(f"molfile: {problem}", record=label)
+    version = "V3000" if "V3000" in molpart.splitlines()[3 if len(molpart.splitlines()) > 3 else 0] else "V2000"
+    flag = None
+    if version == "V2000":
+        counts = molpart.splitlines()[3]
+        flag = 1 if counts[12:15].strip() == "1" else 0
+    if mol.HasProp("_MolFileChiralFlag"):
+        flag = mol.GetIntProp("_MolFileChiralFlag")
+    notes = []
+    if mol.GetNumConformers() and mol.GetConformer().Is3D():
+        notes.append("3D coordinates: stereo was taken from the geometry")
+    return Structure(
+        mol=mol,
+        format="molfile",
+        source=source,
+        record=record,
+        notes=tuple(notes),
+        stereo_groups=_groups(mol),
+        chiral_flag=flag if version == "V2000" else None,
+    )
+
+
+def _groups(mol: Chem.Mol) -> tuple[StereoGroup, ...]:
+    kinds = {
+        Chem.StereoGroupType.STEREO_ABSOLUTE: "absolute",
+        Chem.StereoGroupType.STEREO_AND: "and",
+        Chem.StereoGroupType.STEREO_OR: "or",
+    }
+    return tuple(
+        StereoGroup(kinds[g.GetGroupType()], tuple(sorted(a.GetIdx() for a in g.GetAtoms())))
+        for g in mol.GetStereoGroups()
+    )

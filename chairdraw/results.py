@@ -1,0 +1,160 @@
+"""Frozen result objects of an analysis, each with ``to_dict()`` for JSON (see schema/)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+from .energy.terms import Term
+from .rings import RefusedRing
+
+SCHEMA_VERSION = "1"
+
+
+def _r(x: float, digits: int = 4) -> float:
+    return round(x, digits)
+
+
+@dataclass(frozen=True)
+class Position:
+    ring_atom: int
+    locant: str
+    atom: int | None
+    label: str
+    face: str
+    orientation: str
+    inverting: bool = False
+    estimated: bool = False
+
+    def to_dict(self) -> dict:
+        return {
+            "ring_atom": self.ring_atom,
+            "locant": self.locant,
+            "atom": self.atom,
+            "label": self.label,
+            "face": self.face,
+            "orientation": self.orientation,
+            "inverting": self.inverting,
+            "estimated": self.estimated,
+        }
+
+
+@dataclass(frozen=True)
+class Chair:
+    name: str
+    up_atoms: tuple[int, ...]
+    energy_kcal_mol: float
+    population: float
+    favored: bool
+    terms: tuple[Term, ...]
+    positions: tuple[Position, ...]
+
+    def axial(self) -> tuple[Position, ...]:
+        return tuple(p for p in self.positions if p.orientation == "axial" and p.label not in ("H", "lone pair"))
+
+    def to_dict(self) -> dict:
+        return {
+            "name": self.name,
+            "up_atoms": list(self.up_atoms),
+            "energy_kcal_mol": _r(self.energy_kcal_mol),
+            "population": _r(self.population, 6),
+            "favored": self.favored,
+            "terms": [t.to_dict() for t in self.terms],
+            "positions": [p.to_dict() for p in self.positions],
+        }
+
+
+@dataclass(frozen=True)
+class Centre:
+    atom: int
+    locant: str
+    status: str  # specified, unspecified, unknown, assumed (unspecified, value chosen for analysis)
+
+    def to_dict(self) -> dict:
+        return {"atom": self.atom, "locant": self.locant, "status": self.status}
+
+
+@dataclass(frozen=True)
+class Configuration:
+    """A relative configuration chosen for analysis because the input left it open."""
+
+    label: str
+    smiles: str
+    inchi: str
+
+    def to_dict(self) -> dict:
+        return {"label": self.label, "smiles": self.smiles, "inchi": self.inchi}
+
+
+@dataclass(frozen=True)
+class RingResult:
+    atoms: tuple[int, ...]
+    locants: tuple[str, ...]
+    kind: str
+    chairs: tuple[Chair, Chair]
+    delta_g_kcal_mol: float
+    degenerate: bool
+    stereo: tuple[Centre, ...]
+    configuration: Configuration | None = None
+    trigonal_atoms: tuple[int, ...] = ()
+    warnings: tuple[str, ...] = ()
+    notes: tuple[str, ...] = ()
+
+    @property
+    def favored(self) -> Chair | None:
+        return next((c for c in self.chairs if c.favored), None)
+
+    def to_dict(self) -> dict:
+        return {
+            "atoms": list(self.atoms),
+            "locants": list(self.locants),
+            "kind": self.kind,
+            "delta_g_kcal_mol": _r(self.delta_g_kcal_mol),
+            "degenerate": self.degenerate,
+            "favored_chair": self.favored.name if self.favored else None,
+            "stereo": [c.to_dict() for c in self.stereo],
+            "configuration": self.configuration.to_dict() if self.configuration else None,
+            "trigonal_atoms": list(self.trigonal_atoms),
+            "warnings": list(self.warnings),
+            "notes": list(self.notes),
+            "chairs": [c.to_dict() for c in self.chairs],
+        }
+
+
+@dataclass(frozen=True)
+class Analysis:
+    record: str | None
+    source: str
+    format: str
+    smiles: str
+    inchi: str
+    temperature_K: float
+    solvent: str
+    stereo_meaning: str
+    rings: tuple[RingResult, ...]
+    refused: tuple[RefusedRing, ...] = ()
+    notes: tuple[str, ...] = ()
+    model: str = "additive"
+    disclaimer: str = field(
+        default=(
+            "A conformational model from tabulated energies: it does not replace experimental proof "
+            "of configuration or an organisation's registration rules."
+        )
+    )
+
+    def to_dict(self) -> dict:
+        return {
+            "schema_version": SCHEMA_VERSION,
+            "record": self.record,
+            "source": self.source,
+            "format": self.format,
+            "smiles": self.smiles,
+            "inchi": self.inchi,
+            "temperature_K": self.temperature_K,
+            "solvent": self.solvent,
+            "model": self.model,
+            "stereo_meaning": self.stereo_meaning,
+            "rings": [r.to_dict() for r in self.rings],
+            "refused_rings": [r.to_dict() for r in self.refused],
+            "notes": list(self.notes),
+            "disclaimer": self.disclaimer,
+        }

@@ -1,0 +1,140 @@
+"""What each ring substituent is: a named group of the A-value table or an estimate by class.
+
+A substituent is cut off at its bond to the ring (the ring atom becomes '*') and its canonical
+SMILES is looked up in the table; an exact match is a recognised group. Otherwise the classes in
+``classes.txt`` are tried in order as SMARTS from '*', and the representative group's value is
+used, flagged as estimated. Look-ups are cached by fragment SMILES, so a data set with the same
+groups over and over costs one look-up per distinct group.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import cache
+
+from rdkit import Chem
+
+from .energy import tables
+
+HALOGENS = {"F", "Cl", "Br", "I"}
+
+
+@dataclass(frozen=True)
+class Group:
+    """A recognised or estimated substituent."""
+
+    label: str
+    fragment: str  # canonical SMILES with '*'
+    pair_class: str  # C, O, N, S, X, P, H ...
+    rows: tuple[tables.AValue, ...]  # table rows for this group (several contexts)
+    estimated_as: str | None = None  # class name when the value is borrowed
+
+    def avalue(self, solvent: str, context: str | None) -> tuple[float, tables.AValue, bool]:
+        """(value, row, context_matched). Falls back to the cyclohexane row."""
+        if context is not None:
+            for row in self.rows:
+                if row.context == context:
+                    return row.value(solvent), row, True
+        for row in self.rows:
+            if row.context is None:
+                return row.value(solvent), row, context is None
+        row = self.rows[0]
+        return row.value(solvent), row, False
+
+
+def canonical_fragment(smiles: str) -> str:
+    mol = Chem.MolFromSmiles(smiles)
+    if mol is None:
+        raise ValueError(smiles)
+    for atom in mol.GetAtoms():
+        atom.SetIsotope(0) if atom.GetAtomicNum() == 0 else None
+    return Chem.MolToSmiles(mol, isomericSmiles=False)
+
+
+@cache
+def _table() -> dict[str, list[tables.AValue]]:
+    by_fragment: dict[str, list[tables.AValue]] = {}
+    for row in tables.avalues():
+        key = _table_key(row.group)
+        by_fragment.setdefault(key, []).append(row)
+    return by_fragment
+
+
+def _table_key(group: str) -> str:
+    mol = Chem.MolFromSmiles(group, sanitize=True)
+    if mol is None:
+        raise tables.DataFileError(f"avalues.txt: cannot read group {group!r}")
+    if group == "*[2H]":
+        return "[2H]*"  # the only group whose isotope matters
+    return Chem.MolToSmiles(mol, isomericSmiles=False)
+
+
+@cache
+def _compiled_classes() -> tuple[tuple[tables.SubstituentClass, Chem.Mol], ...]:
+    out = []
+    for c in tables.classes():
+        # '*' in SMARTS is any atom; the leading one must be the cut point itself
+        patt = Chem.MolFromSmarts("[#0]" + c.smarts[1:] if c.smarts.startswith("*") else c.smarts)
+        if patt is None:
+            raise tables.DataFileError(f"classes.txt: bad SMARTS {c.smarts!r} for {c.name!r}")
+        out.append((c, patt))
+    return tuple(out)
+
+
+def _rows_by_label(label: str) -> tuple[tables.AValue, ...]:
+    return tuple(r for r in tables.avalues() if r.label == label)
+
+
+@cache
+def recognise(fragment: str) -> Group:
+    """The group for a canonical fragment SMILES (with one '*')."""
+    table = _table()
+    rows = table.get(fragment)
+    mol = Chem.MolFromSmiles(fragment)
+    attached = _attached_element(mol)
+    pair_class = "X" if attached in HALOGENS else attached
+    if rows:
+        return Group(rows[0].label, fragment, pair_class, tuple(rows))
+    for cls, patt in _compiled_classes():
+        if mol.HasSubstructMatch(patt):
+            return Group(_formula_label(mol), fragment, cls.pair_class, _rows_by_label(cls.representative), cls.name)
+    placeholder = tables.AValue("?", fragment, 1.0, None, None, ("placeholder",), "no class matched")
+    return Group(_formula_label(mol), fragment, pair_class, (placeholder,), "unclassified")
+
+
+def _attached_element(mol: Chem.Mol) -> str:
+    for atom in mol.GetAtoms():
+        if atom.GetAtomicNum() == 0:
+            return atom.GetNeighbors()[0].GetSymbol()
+    return "?"
+
+
+def _formula_label(mol: Chem.Mol) -> str:
+    """A readable name for an unknown group: its Hill formula as a radical, e.g. C5H11."""
+    counts: dict[str, int] = {}
+    for atom in mol.GetAtoms():
+        if atom.GetAtomicNum() == 0:
+            continue
+        counts[atom.GetSymbol()] = counts.get(atom.GetSymbol(), 0) + 1
+        if atom.GetTotalNumHs():
+            counts["H"] = counts.get("H", 0) + atom.GetTotalNumHs()
+    order = (["C", "H"] if "C" in counts else []) + sorted(
+        k for k in counts if k not in ("C", "H") or "C" not in counts
+    )
+    return "".join(f"{el}{counts[el] if counts[el] > 1 else ''}" for el in order)
+
+
+def fragments(mol: Chem.Mol, bonds: list[tuple[int, int]]) -> dict[tuple[int, int], str]:
+    """Canonical fragment SMILES for each (ring atom, attached atom) bond, cut all at once."""
+    if not bonds:
+        return {}
+    indices = [mol.GetBondBetweenAtoms(r, s).GetIdx() for r, s in bonds]
+    cut = Chem.FragmentOnBonds(mol, indices, addDummies=True, dummyLabels=[(0, 0)] * len(indices))
+    owner: dict[int, tuple[int, ...]] = {}
+    for piece in Chem.GetMolFrags(cut, asMols=False, sanitizeFrags=False):
+        for atom in piece:
+            owner[atom] = piece
+    out = {}
+    for r, s in bonds:
+        out[(r, s)] = Chem.MolFragmentToSmiles(cut, atomsToUse=list(owner[s]), isomericSmiles=False, canonical=True)
+    return out

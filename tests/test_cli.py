@@ -1,0 +1,98 @@
+"""The command line: exit codes, output channels, JSON validity against the shipped schema."""
+
+from __future__ import annotations
+
+import io
+import json
+
+import jsonschema
+import pytest
+
+from chairdraw.cli import main
+from chairdraw.demo import demo_records
+from chairdraw.schema import load
+
+
+def test_analyze_text_report(capsys):
+    assert main(["analyze", "C[C@H]1CC[C@@H](O)CC1"]) == 0
+    out = capsys.readouterr().out
+    assert "favoured chair" in out
+    assert "does not replace experimental" in out
+
+
+def test_analyze_json_validates_and_names_the_favoured_chair(capsys):
+    # methylcyclohexane: Me equatorial favoured, A = 1.74 (Booth & Everett 1980)
+    assert main(["analyze", "CC1CCCCC1", "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    jsonschema.validate(data, load())
+    ring = data["rings"][0]
+    fav = [c for c in ring["chairs"] if c["favored"]]
+    assert len(fav) == 1
+    me = [p for p in fav[0]["positions"] if p["label"] == "Me"]
+    assert me and me[0]["orientation"] == "equatorial"
+    assert ring["delta_g_kcal_mol"] == pytest.approx(1.74, abs=1e-6)
+
+
+def test_kj_units(capsys):
+    assert main(["analyze", "CC1CCCCC1", "--units", "kJ"]) == 0
+    out = capsys.readouterr().out
+    assert "7.28 kJ/mol" in out  # 1.74 kcal/mol x 4.184
+
+
+def test_temperature_and_solvent_reach_the_result(capsys):
+    assert main(["analyze", "OC1CCCCC1", "--json", "--temperature", "200", "--solvent", "protic"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert data["temperature_K"] == 200
+    assert data["rings"][0]["delta_g_kcal_mol"] == pytest.approx(1.0)  # OH in isopropanol (Eliel & Wilen)
+
+
+def test_stdin(monkeypatch, capsys):
+    monkeypatch.setattr("sys.stdin", io.StringIO("CC1CCCCC1\n"))
+    assert main(["analyze", "-", "--json"]) == 0
+    assert json.loads(capsys.readouterr().out)["source"] == "stdin"
+
+
+@pytest.mark.parametrize(
+    "argv, fragment",
+    [
+        (["analyze", "C1CC("], "SMILES at position 5"),
+        (["analyze", "/no/such/file.mol"], "cannot open"),
+        (["analyze", "CC1CCCCC1", "--temperature", "-5"], "temperature"),
+        (["analyze", "InChI=1S/garbage"], "InChI"),
+    ],
+)
+def test_bad_input_exits_2_with_one_clear_message(argv, fragment, capsys):
+    assert main(argv) == 2
+    captured = capsys.readouterr()
+    assert captured.out == ""
+    assert fragment in captured.err
+    assert "Traceback" not in captured.err
+
+
+def test_usage_error_exits_2(capsys):
+    with pytest.raises(SystemExit) as exc:
+        main(["analyze"])
+    assert exc.value.code == 2
+    assert "usage" in capsys.readouterr().err
+
+
+def test_demo_runs_every_record(capsys):
+    assert main(["demo"]) == 0
+    out = capsys.readouterr().out
+    for _, record in demo_records():
+        assert record in out
+
+
+def test_demo_json_validates(capsys):
+    assert main(["demo", "--json"]) == 0
+    rows = json.loads(capsys.readouterr().out)
+    assert len(rows) == len(demo_records())
+    schema = load()
+    for row in rows:
+        jsonschema.validate(row, schema)
+
+
+def test_no_ring_is_not_an_error(capsys):
+    assert main(["analyze", "CCO", "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert data["rings"] == [] and "no ring that can take a chair" in data["notes"]
