@@ -14,9 +14,9 @@ from rdkit import Chem
 
 from . import _rdkit
 from .chairs import AXIAL, chair_name, inverting_choices, place, points_up
-from .energy import equilibrium, tables
+from .energy import equilibrium, forcefield, tables
 from .energy.terms import NO_POSITION_VALUE, chair_terms
-from .errors import StereoError, UsageError
+from .errors import EnergyError, StereoError, UsageError
 from .faces import CCW, CW, TOP, Slot, mirror, ring_slots
 from .read import Structure, read
 from .results import Analysis, Centre, Chair, Configuration, Position, RingResult
@@ -24,6 +24,9 @@ from .rings import ChairRing, find_rings
 from .substituents import Group, fragments, recognise
 
 SOLVENTS = ("aprotic", "protic")
+# MMFF94 comparison: 'auto' runs it where the tables fall short (a group estimated by class)
+FORCEFIELD_MODES = ("auto", "always", "never")
+FORCEFIELD_DISAGREES_KCAL = 0.5
 MAX_OPEN_CENTRES = 8
 TWIST_WARNING_KCAL = 4.5  # about A(tBu): axial t-Bu-cyclohexane and its twist-boat are close (Wiberg 1999)
 _N_H = Group("H", "*[H]", "H", tuple(r for r in tables.avalues() if r.label == "H"))
@@ -37,7 +40,10 @@ _STATUS = {
 class Analyzer:
     """Analyses structures at one temperature and solvent."""
 
-    def __init__(self, temperature: float = 298.15, solvent: str = "aprotic"):
+    def __init__(self, temperature: float = 298.15, solvent: str = "aprotic", forcefield: str = "auto"):
+        if forcefield not in FORCEFIELD_MODES:
+            raise UsageError(f"forcefield must be one of {', '.join(FORCEFIELD_MODES)}, not {forcefield!r}")
+        self.forcefield = forcefield
         if solvent not in SOLVENTS:
             raise UsageError(f"solvent must be one of {', '.join(SOLVENTS)}, not {solvent!r}")
         if not temperature > 0:
@@ -76,14 +82,38 @@ class Analyzer:
     # --- one ring ---------------------------------------------------------------------------
 
     def _ring(self, mol: Chem.Mol, ring: ChairRing, status: dict[int, str]) -> list[RingResult]:
+        base_slots = ring_slots(mol, ring)
+        groups = self._groups(mol, base_slots)
+        return [
+            self._with_forcefield(m, ring, r) for m, r in self._configurations(mol, ring, status, base_slots, groups)
+        ]
+
+    def _with_forcefield(self, mol: Chem.Mol, ring: ChairRing, result: RingResult) -> RingResult:
+        estimated = any(p.estimated for p in result.chairs[0].positions)
+        if self.forcefield == "never" or (self.forcefield == "auto" and not estimated):
+            return result
+        try:
+            energies = forcefield.chair_energies(mol, ring)
+        except EnergyError as exc:
+            return _with(result, warnings=result.warnings + (f"MMFF94 comparison failed: {exc.message}",))
+        warnings = result.warnings
+        table_low = 0 if result.chairs[0].energy_kcal_mol <= result.chairs[1].energy_kcal_mol else 1
+        ff_low = 0 if energies[0] <= energies[1] else 1
+        if ff_low != table_low and abs(energies[0] - energies[1]) > FORCEFIELD_DISAGREES_KCAL:
+            warnings += (
+                f"MMFF94 favours the other chair ({result.chairs[ff_low].name}) by "
+                f"{abs(energies[0] - energies[1]):.2f} kcal/mol (force-field energy, not a free energy)",
+            )
+        return _with(result, forcefield_kcal_mol=energies, warnings=warnings)
+
+    def _configurations(self, mol, ring, status, base_slots, groups) -> list[tuple[Chem.Mol, RingResult]]:
+        """(molecule with the ring's stereo as analysed, result) for each configuration."""
         centres = [a for a in ring.atoms if a in status]
         open_ = [a for a in centres if status[a] != "specified"]
         loc = dict(zip(ring.atoms, ring.locants))
-        base_slots = ring_slots(mol, ring)
-        groups = self._groups(mol, base_slots)
         if not open_:
             stereo = tuple(Centre(a, loc[a], "specified") for a in centres)
-            return [self._chairs(ring, base_slots, groups, stereo)]
+            return [(mol, self._chairs(ring, base_slots, groups, stereo))]
         if len(open_) > MAX_OPEN_CENTRES:
             raise StereoError(f"{len(open_)} unspecified centres in one ring: too many to enumerate")
         if len(centres) == 1:
@@ -94,7 +124,7 @@ class Analyzer:
                 "have mirror-image chairs of equal energy, so one is analysed"
             )
             result = self._chairs(ring, ring_slots(fixed, ring), groups, stereo)
-            return [_with(result, notes=result.notes + (note,))]
+            return [(fixed, _with(result, notes=result.notes + (note,)))]
         out = []
         seen: set[str] = set()
         variants = list(itertools.product((CCW, CW), repeat=len(open_)))
@@ -115,7 +145,7 @@ class Analyzer:
                 f"{len(open_)} ring stereocentres are {_words(status, open_)}: each relative configuration "
                 f"is analysed separately; this is {label}"
             )
-            out.append(_with(result, notes=result.notes + (note,)))
+            out.append((candidate, _with(result, notes=result.notes + (note,))))
         return out
 
     def _groups(self, mol: Chem.Mol, slots: tuple[Slot, ...]) -> dict[tuple[int, int | None, str], Group]:
@@ -190,9 +220,15 @@ class Analyzer:
         )
 
 
-def analyze(structure, temperature: float = 298.15, solvent: str = "aprotic", format: str | None = None) -> Analysis:
+def analyze(
+    structure,
+    temperature: float = 298.15,
+    solvent: str = "aprotic",
+    format: str | None = None,
+    forcefield: str = "auto",
+) -> Analysis:
     """Analyse a structure (text, path, RDKit molecule or Structure) at T and in a solvent class."""
-    return Analyzer(temperature, solvent).analyze(read(structure, format=format))
+    return Analyzer(temperature, solvent, forcefield).analyze(read(structure, format=format))
 
 
 # --- helpers ---------------------------------------------------------------------------------

@@ -11,7 +11,7 @@ import sys
 from collections.abc import Sequence
 
 from . import __version__
-from .analyze import SOLVENTS, Analyzer
+from .analyze import FORCEFIELD_MODES, SOLVENTS, Analyzer
 from .demo import demo_records
 from .errors import ChairdrawError
 from .read import FORMATS, read, read_text
@@ -37,6 +37,12 @@ def _parser() -> argparse.ArgumentParser:
         q.add_argument("--solvent", choices=SOLVENTS, default="aprotic", help="solvent class for A-values")
         q.add_argument("--units", choices=("kcal", "kJ"), default="kcal", help="energy units of the text report")
         q.add_argument("--json", action="store_true", help="print one JSON object per structure")
+        q.add_argument(
+            "--forcefield",
+            choices=FORCEFIELD_MODES,
+            default="auto",
+            help="MMFF94 comparison of the two chairs: auto (where a group is estimated), always, never",
+        )
 
     a = sub.add_parser("analyze", help="analyse one structure: both chairs, energies, populations")
     a.add_argument("input", help="SMILES, CXSMILES, InChI, a molfile/SDF path, or - for standard input")
@@ -52,7 +58,7 @@ def _parser() -> argparse.ArgumentParser:
 def main(argv: Sequence[str] | None = None) -> int:
     args = _parser().parse_args(argv)
     try:
-        analyzer = Analyzer(args.temperature, args.solvent)
+        analyzer = Analyzer(args.temperature, args.solvent, args.forcefield)
         if args.command == "analyze":
             return _analyze(args, analyzer)
         return _demo(args, analyzer)

@@ -119,10 +119,11 @@ def _element(mol: Chem.Mol, n) -> str:
     return "H" if isinstance(n, str) else mol.GetAtomWithIdx(n).GetSymbol()
 
 
-def set_faces(mol: Chem.Mol, ring: ChairRing, faces: Mapping[int, str]) -> Chem.Mol:
+def set_faces(mol: Chem.Mol, ring: ChairRing, faces: Mapping[int, str], clean: bool = True) -> Chem.Mol:
     """A copy of ``mol`` with chiral tags on the ring atoms that put substituent atoms on the
     given faces. ``faces`` maps a substituent atom index to 'top' or 'bottom'; each ring atom
-    needs at most one entry (its other neighbour goes on the other face)."""
+    needs at most one entry (its other neighbour goes on the other face). With ``clean=False``
+    tags stay on atoms that are not stereocentres too (an embedding then honours the choice)."""
     out = Chem.Mol(mol)
     for i, idx in enumerate(ring.atoms):
         atom = out.GetAtomWithIdx(idx)
@@ -140,7 +141,8 @@ def set_faces(mol: Chem.Mol, ring: ChairRing, faces: Mapping[int, str]) -> Chem.
         effective = CCW if s0_top else CW
         tag = effective if parity(order, [prev, nxt, s0, s1]) == 0 else (CW if effective == CCW else CCW)
         atom.SetChiralTag(tag)
-    Chem.AssignStereochemistry(out, cleanIt=True, force=True)
+    if clean:
+        Chem.AssignStereochemistry(out, cleanIt=True, force=True)
     return out
 
 

@@ -75,6 +75,9 @@ def _ring_lines(k: int, ring: RingResult, units: str, used: list[str]) -> list[s
                     used.append(key)
             keys = ",".join(term.sources)
             out.append(f"      {chair.name}: {term.name}: {_signed(term.value, units)} [{keys}]")
+    if ring.forcefield_kcal_mol is not None:
+        ff = ring.forcefield_kcal_mol
+        out.append(f"    {'MMFF94 (check)':<23}{_e(ff[0], units):<{width}}{_e(ff[1], units):<{width}}")
     for note in ring.notes:
         out.append(f"    note: {note}")
     for warning in ring.warnings:

@@ -98,6 +98,7 @@ class RingResult:
     trigonal_atoms: tuple[int, ...] = ()
     warnings: tuple[str, ...] = ()
     notes: tuple[str, ...] = ()
+    forcefield_kcal_mol: tuple[float, float] | None = None  # MMFF94, chair order as in chairs
 
     @property
     def favored(self) -> Chair | None:
@@ -116,6 +117,9 @@ class RingResult:
             "trigonal_atoms": list(self.trigonal_atoms),
             "warnings": list(self.warnings),
             "notes": list(self.notes),
+            "forcefield_kcal_mol": None
+            if self.forcefield_kcal_mol is None
+            else [_r(e) for e in self.forcefield_kcal_mol],
             "chairs": [c.to_dict() for c in self.chairs],
         }
 

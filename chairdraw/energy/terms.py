@@ -97,7 +97,9 @@ def chair_terms(
         terms.append(
             Term(
                 "a-value",
-                f"axial {g.label} at {loc[p.slot.ring_index]}" + (f" ({row.note})" if row.context and row.note else ""),
+                f"axial {g.label} at {loc[p.slot.ring_index]}"
+                + (f" ({row.note})" if row.context and row.note else "")
+                + (f" (estimated as {g.estimated_as}: value of {row.label})" if g.estimated_as else ""),
                 _atoms(p),
                 value,
                 row.sources,
