@@ -21,7 +21,7 @@ from .faces import CCW, CW, TOP, Slot, mirror, ring_slots
 from .read import Structure, read
 from .results import Analysis, Centre, Chair, Configuration, Position, RingResult
 from .rings import ChairRing, find_rings
-from .substituents import Group, fragments, recognise
+from .substituents import Group, fragments, hydrogen_isotope_fragment, recognise
 
 SOLVENTS = ("aprotic", "protic")
 # MMFF94 comparison: 'auto' runs it where the tables fall short (a group estimated by class)
@@ -149,11 +149,15 @@ class Analyzer:
         return out
 
     def _groups(self, mol: Chem.Mol, slots: tuple[Slot, ...]) -> dict[tuple[int, int | None, str], Group]:
-        bonds = [(s.ring_atom, s.atom) for s in slots if s.atom is not None and s.is_group]
+        bonds = [
+            (s.ring_atom, s.atom) for s in slots if s.atom is not None and s.is_group and s.element not in ("D", "T")
+        ]
         smiles = fragments(mol, bonds)  # type: ignore[arg-type]
         out: dict[tuple[int, int | None, str], Group] = {}
         for s in slots:
-            if s.is_group and s.atom is not None:
+            if s.element in ("D", "T"):
+                out[(s.ring_atom, s.atom, s.element)] = recognise(hydrogen_isotope_fragment(s.element))
+            elif s.is_group and s.atom is not None:
                 out[(s.ring_atom, s.atom, s.element)] = recognise(smiles[(s.ring_atom, s.atom)])
             elif s.element == "H" and s.inverting:
                 out[(s.ring_atom, s.atom, "H")] = _N_H

@@ -116,7 +116,12 @@ def _atom(n) -> int | None:
 
 
 def _element(mol: Chem.Mol, n) -> str:
-    return "H" if isinstance(n, str) else mol.GetAtomWithIdx(n).GetSymbol()
+    if isinstance(n, str):
+        return "H"
+    atom = mol.GetAtomWithIdx(n)
+    if atom.GetAtomicNum() == 1 and atom.GetIsotope() in (2, 3):
+        return "D" if atom.GetIsotope() == 2 else "T"  # isotopes are groups with A-values of their own
+    return atom.GetSymbol()
 
 
 def set_faces(mol: Chem.Mol, ring: ChairRing, faces: Mapping[int, str], clean: bool = True) -> Chem.Mol:

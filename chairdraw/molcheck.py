@@ -7,12 +7,28 @@ editor. Only used after a failure, so it can be plain and thorough rather than f
 
 from __future__ import annotations
 
+import re
+
 from rdkit import Chem
 
 _PT = Chem.GetPeriodicTable()
 ELEMENTS = frozenset(_PT.GetElementSymbol(z) for z in range(1, 119))
 # query and pseudo atoms that the MDL format allows in the symbol field
 PSEUDO = frozenset({"R", "R#", "A", "Q", "*", "L", "LP", "D", "T", "X", "M", "AH", "QH", "XH", "MH"})
+
+
+_BOND_LINE = re.compile(r"^[ \d]{3}[ \d]{3}[ \d]{3}(?:[ \d]{3})*\s*$")
+
+
+def v3000_chiral_flag(text: str) -> int | None:
+    """The chiral flag of a V3000 COUNTS line (fifth number), or None when absent."""
+    for line in text.splitlines():
+        if line.startswith("M  V30 COUNTS"):
+            words = line.split()[3:]
+            if len(words) >= 5:
+                return _int(words[4])
+            return None
+    return None
 
 
 def diagnose(text: str) -> str | None:
@@ -63,6 +79,11 @@ def _diagnose_v2000(lines: list[str]) -> str | None:
             )
         line = lines[no]
         where = f"line {no + 1} of the file (atom block, atom {k + 1})"
+        if _BOND_LINE.match(line):
+            return (
+                f"line {no + 1}: the atom block ends after {k} atoms, but the counts line "
+                f"promises {n_atoms} (this line is a bond line; truncated atom block)"
+            )
         if any(_float(line[a:b]) is None for a, b in ((0, 10), (10, 20), (20, 30))):
             return f"{where}: cannot read the x, y, z coordinates from {line[:30]!r}"
         problem = _symbol_problem(line[31:34].strip())
@@ -136,6 +157,10 @@ def _diagnose_v3000(lines: list[str]) -> str | None:
             nums = [_int(w) for w in words[:4]]
             if len(words) < 4 or any(n is None for n in nums):
                 return f"{where}: expected 'index type atom1 atom2'"
+            if not 1 <= nums[1] <= 10:  # type: ignore[operator]
+                return f"{where}: unknown bond type {nums[1]} (expected 1-10)"
+            if nums[2] == nums[3]:
+                return f"{where}: bond from atom {nums[2]} to itself"
             for end in nums[2:]:
                 if n_atoms is not None and not 1 <= end <= n_atoms:  # type: ignore[operator]
                     return f"{where}: atom number {end} is outside 1..{n_atoms}"

@@ -57,7 +57,11 @@ class Structure:
         """What the stereo of the input claims: 'absolute', 'relative', 'racemic' or 'mixed'."""
         kinds = {g.kind for g in self.stereo_groups}
         if not kinds:
-            return "relative" if self.chiral_flag == 0 else "absolute"
+            has_stereo = any(
+                a.GetChiralTag() in (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
+                for a in self.mol.GetAtoms()
+            )
+            return "relative" if self.chiral_flag == 0 and has_stereo else "absolute"
         if kinds == {"and"}:
             return "racemic"
         if kinds == {"or"}:
@@ -151,6 +155,11 @@ def _read_smiles(text: str, source: str, record: str | None, cx: bool) -> Struct
     match = _CX_BLOCK.match(line)
     assert match is not None  # the pattern accepts any non-empty line
     smiles, extension, title = match.group(1), match.group(2) or "", match.group(3).strip()
+    if title.startswith("|"):
+        raise InputError(
+            "CXSMILES: the extension block is not closed with '|'",
+            record=record or (source if source != _ARGUMENT else None),
+        )
     record = record or title or None
     params = Chem.SmilesParserParams()
     # the RDKit stubs type these attributes wrongly
@@ -161,6 +170,13 @@ def _read_smiles(text: str, source: str, record: str | None, cx: bool) -> Struct
     mol = Chem.MolFromSmiles(parse_text, params)
     if mol is None:
         raise _smiles_error(parse_text, params, smiles, record or (source if source != _ARGUMENT else None))
+    for listed in re.findall(r"(?:\ba|&\d+|\bo\d+):([\d,]+)", extension):
+        bad = [int(a) for a in listed.split(",") if a and int(a) >= mol.GetNumAtoms()]
+        if bad:
+            raise InputError(
+                f"CXSMILES: stereo group names atom {bad[0]}, but the SMILES has atoms 0-{mol.GetNumAtoms() - 1}",
+                record=record or (source if source != _ARGUMENT else None),
+            )
     notes = []
     if extension and "w" in extension and mol.GetNumConformers() == 0:
         notes.append("CXSMILES wedges without coordinates are ignored by the reader")
@@ -225,9 +241,12 @@ def _read_sdf_first(text: str, source: str, record: str | None) -> Structure:
     if len(records) > 1:
         notes.append(f"the file holds {len(records)} records; the first was taken")
     structure = read_molblock(records[0], source=source, record=record)
+    changes: dict = {}
+    if "$$$$" in text:
+        changes["format"] = "sdf"
     if notes:
-        structure = Structure(**{**structure.__dict__, "notes": structure.notes + tuple(notes)})
-    return structure
+        changes["notes"] = structure.notes + tuple(notes)
+    return Structure(**{**structure.__dict__, **changes}) if changes else structure
 
 
 def read_molblock(block: str, source: str = _ARGUMENT, record: str | None = None) -> Structure:
@@ -241,19 +260,22 @@ def read_molblock(block: str, source: str = _ARGUMENT, record: str | None = None
         mol = Chem.MolFromMolBlock(molpart, sanitize=True, removeHs=False, strictParsing=True)
     except Exception:
         mol = None
-    if mol is None:
-        problem = molcheck.diagnose(block)
-        if problem is None:
-            _, messages = _rdkit.captured(lambda: Chem.MolFromMolBlock(molpart, sanitize=True, removeHs=False))
-            problem = "; ".join(messages) or "RDKit could not read the connection table"
+    # RDKit accepts some broken files (bond type 99, coordinate 'abc' in V3000): always look
+    problem = molcheck.diagnose(block)
+    if problem is None and mol is None:
+        _, messages = _rdkit.captured(lambda: Chem.MolFromMolBlock(molpart, sanitize=True, removeHs=False))
+        problem = (
+            "; ".join(_molfile_numbering(m, molpart) for m in messages) or "RDKit could not read the connection table"
+        )
+    if problem is not None:
         raise InputError(f"molfile: {problem}", record=label)
-    version = "V3000" if "V3000" in molpart.splitlines()[3 if len(molpart.splitlines()) > 3 else 0] else "V2000"
-    flag = None
-    if version == "V2000":
-        counts = molpart.splitlines()[3]
+    assert mol is not None
+    lines = molpart.splitlines()
+    counts = lines[3] if len(lines) > 3 else ""
+    if "V3000" in counts:
+        flag = molcheck.v3000_chiral_flag(molpart)
+    else:
         flag = 1 if counts[12:15].strip() == "1" else 0
-    if mol.HasProp("_MolFileChiralFlag"):
-        flag = mol.GetIntProp("_MolFileChiralFlag")
     notes = []
     if mol.GetNumConformers() and mol.GetConformer().Is3D():
         notes.append("3D coordinates: stereo was taken from the geometry")
@@ -264,8 +286,22 @@ def read_molblock(block: str, source: str = _ARGUMENT, record: str | None = None
         record=record,
         notes=tuple(notes),
         stereo_groups=_groups(mol),
-        chiral_flag=flag if version == "V2000" else None,
+        chiral_flag=flag,
     )
+
+
+_ATOM_NO = re.compile(r"atom # (\d+)")
+
+
+def _molfile_numbering(message: str, molpart: str) -> str:
+    """RDKit counts atoms from 0; a molfile (and the chemist reading it) from 1."""
+    v2000 = len(molpart.splitlines()) > 3 and "V3000" not in molpart.splitlines()[3]
+
+    def one_based(m: re.Match) -> str:
+        n = int(m.group(1)) + 1
+        return f"atom {n} (line {n + 4} of the file)" if v2000 else f"atom {n}"
+
+    return _ATOM_NO.sub(one_based, message)
 
 
 def _groups(mol: Chem.Mol) -> tuple[StereoGroup, ...]:

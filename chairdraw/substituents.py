@@ -43,11 +43,10 @@ class Group:
 
 
 def canonical_fragment(smiles: str) -> str:
+    """Canonical fragment SMILES without plain hydrogen atoms (deuterium and tritium stay)."""
     mol = Chem.MolFromSmiles(smiles)
     if mol is None:
         raise ValueError(smiles)
-    for atom in mol.GetAtoms():
-        atom.SetIsotope(0) if atom.GetAtomicNum() == 0 else None
     return Chem.MolToSmiles(mol, isomericSmiles=False)
 
 
@@ -64,9 +63,14 @@ def _table_key(group: str) -> str:
     mol = Chem.MolFromSmiles(group, sanitize=True)
     if mol is None:
         raise tables.DataFileError(f"avalues.txt: cannot read group {group!r}")
-    if group == "*[2H]":
-        return "[2H]*"  # the only group whose isotope matters
-    return Chem.MolToSmiles(mol, isomericSmiles=False)
+    # isotopes matter only for hydrogen (D, T), whose A-values differ from H's
+    isotopic = any(a.GetIsotope() for a in mol.GetAtoms())
+    return Chem.MolToSmiles(mol, isomericSmiles=isotopic)
+
+
+def hydrogen_isotope_fragment(symbol: str) -> str:
+    """Fragment key of a D or T substituent."""
+    return _table_key("*[2H]" if symbol == "D" else "*[3H]")
 
 
 @cache
@@ -136,5 +140,9 @@ def fragments(mol: Chem.Mol, bonds: list[tuple[int, int]]) -> dict[tuple[int, in
             owner[atom] = piece
     out = {}
     for r, s in bonds:
-        out[(r, s)] = Chem.MolFragmentToSmiles(cut, atomsToUse=list(owner[s]), isomericSmiles=False, canonical=True)
+        atoms = list(owner[s])
+        smiles = Chem.MolFragmentToSmiles(cut, atomsToUse=atoms, isomericSmiles=False, canonical=True)
+        if any(cut.GetAtomWithIdx(a).GetAtomicNum() == 1 for a in atoms):
+            smiles = canonical_fragment(smiles)  # hydrogens drawn as atoms (molfiles, AddHs)
+        out[(r, s)] = smiles
     return out
