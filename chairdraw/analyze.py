@@ -8,23 +8,23 @@ configuration, each labelled (r/c/t and SMILES).
 
 from __future__ import annotations
 
-import itertools
-
 from rdkit import Chem
 
 from . import _rdkit
 from .chairs import AXIAL, chair_name, inverting_choices, place, points_up
+from .configurations import enumerate_faces, faces_of
 from .energy import equilibrium, forcefield, tables
 from .energy.terms import NO_POSITION_VALUE, chair_terms
 from .errors import EnergyError, StereoError, UsageError
-from .faces import CCW, CW, TOP, Slot, mirror, ring_slots
+from .faces import CCW, TOP, Slot, ring_slots, set_faces
 from .read import Structure, read
 from .results import Analysis, Centre, Chair, Configuration, Position, RingResult
 from .rings import ChairRing, find_rings
 from .substituents import Group, fragments, hydrogen_isotope_fragment, recognise
 
 SOLVENTS = ("aprotic", "protic")
-# MMFF94 comparison: 'auto' runs it where the tables fall short (a group estimated by class)
+# MMFF94 comparison: 'auto' runs it where the tables fall short (a group estimated by class);
+# the library default is 'never' (bulk speed), the command line's is 'auto'
 FORCEFIELD_MODES = ("auto", "always", "never")
 FORCEFIELD_DISAGREES_KCAL = 0.5
 MAX_OPEN_CENTRES = 8
@@ -40,7 +40,7 @@ _STATUS = {
 class Analyzer:
     """Analyses structures at one temperature and solvent."""
 
-    def __init__(self, temperature: float = 298.15, solvent: str = "aprotic", forcefield: str = "auto"):
+    def __init__(self, temperature: float = 298.15, solvent: str = "aprotic", forcefield: str = "never"):
         if forcefield not in FORCEFIELD_MODES:
             raise UsageError(f"forcefield must be one of {', '.join(FORCEFIELD_MODES)}, not {forcefield!r}")
         self.forcefield = forcefield
@@ -125,21 +125,15 @@ class Analyzer:
             )
             result = self._chairs(ring, ring_slots(fixed, ring), groups, stereo)
             return [(fixed, _with(result, notes=result.notes + (note,)))]
+        others = any(v == "specified" for a, v in status.items() if a not in ring.atoms)
         out = []
-        seen: set[str] = set()
-        variants = list(itertools.product((CCW, CW), repeat=len(open_)))
-        for tags in variants:
-            candidate = _with_tags(mol, dict(zip(open_, tags)))
-            key = min(_rdkit.standard_inchi(candidate), _rdkit.standard_inchi(mirror(candidate)))
-            if key in seen:
-                continue
-            seen.add(key)
-            slots = ring_slots(candidate, ring)
+        for slots in enumerate_faces(mol, ring, base_slots, open_, mirror_ok=not others):
+            candidate = set_faces(mol, ring, faces_of(slots))
             label = relative_label(ring, slots, groups, centres)
             stereo = tuple(
                 Centre(a, loc[a], "specified" if status[a] == "specified" else f"{status[a]}, assumed") for a in centres
             )
-            config = Configuration(label, Chem.MolToSmiles(candidate), _rdkit.standard_inchi(candidate))
+            config = Configuration(label, Chem.MolToSmiles(candidate))
             result = self._chairs(ring, slots, groups, stereo, config)
             note = (
                 f"{len(open_)} ring stereocentres are {_words(status, open_)}: each relative configuration "
@@ -229,9 +223,12 @@ def analyze(
     temperature: float = 298.15,
     solvent: str = "aprotic",
     format: str | None = None,
-    forcefield: str = "auto",
+    forcefield: str = "never",
 ) -> Analysis:
-    """Analyse a structure (text, path, RDKit molecule or Structure) at T and in a solvent class."""
+    """Analyse a structure (text, path, RDKit molecule or Structure) at T and in a solvent class.
+
+    ``forcefield``: 'auto' adds an MMFF94 comparison of the two chairs where a group had to be
+    estimated by class, 'always' for every ring, 'never' (the default: it costs 20-1000 ms a ring)."""
     return Analyzer(temperature, solvent, forcefield).analyze(read(structure, format=format))
 
 
@@ -316,8 +313,6 @@ def _group_warnings(ring: ChairRing, by_slot: dict[Slot, Group]) -> list[str]:
                         f"{g.label} at {where} is not in the A-value table: estimated as {g.estimated_as} "
                         f"(value of {g.rows[0].label}, {value:g} kcal/mol)"
                     )
-            elif any("memory" in r.sources for r in g.rows if r.context is None):
-                out.append(f"the A-value of {g.label} at {where} is from memory, not from a checked compilation")
         if len(gs) == 2 and ring.elements[i] == "C":
             out.append(
                 f"geminal {gs[0].label}/{gs[1].label} at {where}: A-values are not additive for geminal pairs "

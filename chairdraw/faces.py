@@ -124,11 +124,15 @@ def _element(mol: Chem.Mol, n) -> str:
     return atom.GetSymbol()
 
 
-def set_faces(mol: Chem.Mol, ring: ChairRing, faces: Mapping[int, str], clean: bool = True) -> Chem.Mol:
+def set_faces(mol: Chem.Mol, ring: ChairRing, faces: Mapping[int, str]) -> Chem.Mol:
     """A copy of ``mol`` with chiral tags on the ring atoms that put substituent atoms on the
     given faces. ``faces`` maps a substituent atom index to 'top' or 'bottom'; each ring atom
-    needs at most one entry (its other neighbour goes on the other face). With ``clean=False``
-    tags stay on atoms that are not stereocentres too (an embedding then honours the choice)."""
+    needs at most one entry (its other neighbour goes on the other face).
+
+    Tags are left as written, also on atoms that are not stereocentres (an embedding then honours
+    the choice). They are not "cleaned": RDKit's AssignStereochemistry(cleanIt=True) in the new
+    perception mode rewrites ring tags of symmetric polyols (scyllo- and myo-type inositols seen
+    here), turning one configuration into another."""
     out = Chem.Mol(mol)
     for i, idx in enumerate(ring.atoms):
         atom = out.GetAtomWithIdx(idx)
@@ -146,8 +150,6 @@ def set_faces(mol: Chem.Mol, ring: ChairRing, faces: Mapping[int, str], clean: b
         effective = CCW if s0_top else CW
         tag = effective if parity(order, [prev, nxt, s0, s1]) == 0 else (CW if effective == CCW else CCW)
         atom.SetChiralTag(tag)
-    if clean:
-        Chem.AssignStereochemistry(out, cleanIt=True, force=True)
     return out
 
 

@@ -4,6 +4,9 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
+from rdkit import Chem
+
+from . import _rdkit
 from .energy.terms import Term
 from .rings import RefusedRing
 
@@ -79,7 +82,12 @@ class Configuration:
 
     label: str
     smiles: str
-    inchi: str
+
+    @property
+    def inchi(self) -> str:
+        # computed on demand: an enumerated sugar ring has 16 configurations
+        mol = Chem.MolFromSmiles(self.smiles)
+        return _rdkit.standard_inchi(mol) if mol is not None else ""
 
     def to_dict(self) -> dict:
         return {"label": self.label, "smiles": self.smiles, "inchi": self.inchi}

@@ -88,7 +88,41 @@ def find_rings(mol: Chem.Mol) -> tuple[list[ChairRing], list[RefusedRing]]:
             refused.append(RefusedRing(ring, reason))
         else:
             accepted.append(_numbered(mol, ring))
+    known = {frozenset(r) for r in all_rings}
+    for ring in _hidden_six_rings(mol, all_rings):
+        if frozenset(ring) not in known:
+            known.add(frozenset(ring))
+            refused.append(RefusedRing(ring, "bridged ring system (a six-membered ring outside the smallest set of rings): not supported yet"))
     return accepted, refused
+
+
+def _hidden_six_rings(mol: Chem.Mol, all_rings: list[tuple[int, ...]]) -> list[tuple[int, ...]]:
+    """Six-membered cycles of polycyclic systems that RDKit's SSSR leaves out (norbornane's)."""
+    shared = {a for r in all_rings for a in r if sum(a in q for q in all_rings) > 1}
+    if not shared:
+        return []
+    in_rings = {a for r in all_rings for a in r}
+    found: list[tuple[int, ...]] = []
+
+    def walk(path: list[int]) -> None:
+        last = path[-1]
+        for n in mol.GetAtomWithIdx(last).GetNeighbors():
+            j = n.GetIdx()
+            if j not in in_rings:
+                continue
+            if len(path) == 6:
+                if j == path[0]:
+                    found.append(tuple(path))
+                continue
+            if j not in path and j > path[0]:
+                walk(path + [j])
+
+    for start in sorted(shared):
+        walk([start])
+    unique: dict[frozenset, tuple[int, ...]] = {}
+    for cycle in found:
+        unique.setdefault(frozenset(cycle), cycle)
+    return list(unique.values())
 
 
 def _refusal(mol: Chem.Mol, ring: tuple[int, ...], all_rings: list[tuple[int, ...]]) -> str | None:

@@ -102,7 +102,15 @@ def test_puckering_of_ideal_forms():
 
 
 def test_auto_mode_runs_mmff_only_for_estimated_groups():
-    assert chairdraw.analyze("CC1CCCCC1").rings[0].forcefield_kcal_mol is None
-    ring = chairdraw.analyze("CCCCC1CCCCC1").rings[0]  # n-butyl is not in the table
+    assert chairdraw.analyze("CC1CCCCC1", forcefield="auto").rings[0].forcefield_kcal_mol is None
+    ring = chairdraw.analyze("CCCCC1CCCCC1", forcefield="auto").rings[0]  # n-butyl is not in the table
     assert ring.forcefield_kcal_mol is not None
-    assert chairdraw.analyze("CCCCC1CCCCC1", forcefield="never").rings[0].forcefield_kcal_mol is None
+    # the library default is 'never' (bulk speed)
+    assert chairdraw.analyze("CCCCC1CCCCC1").rings[0].forcefield_kcal_mol is None
+
+
+def test_command_line_default_is_auto(capsys):
+    from chairdraw.cli import main
+
+    assert main(["analyze", "CCCCC1CCCCC1", "--json"]) == 0
+    assert '"forcefield_kcal_mol": [' in capsys.readouterr().out

@@ -24,7 +24,7 @@ from ..faces import ring_slots, set_faces
 from ..rings import ChairRing
 
 RADIUS, HEIGHT = 1.446, 0.25  # ideal chair: C-C 1.53 A, ring angle ~110 deg, torsions ~59 deg
-SEEDS = (0xC0FFEE, 7, 2024)
+SEEDS = (0xC0FFEE, 7, 2024)  # tried in turn until one embedding keeps the chair
 CHAIR_THETA = 25.0  # degrees from 0 or 180: a chair; half-chairs sit near 50
 
 
@@ -66,14 +66,15 @@ def up_pattern(points: np.ndarray) -> tuple[bool, ...]:
 
 
 def build_chair(mol: Chem.Mol, ring: ChairRing, chair: int, variant: str = "MMFF94") -> ChairGeometry:
-    """The lowest MMFF94 structure of ``chair`` over a few seeds; EnergyError if none holds.
+    """An MMFF94-minimised structure of ``chair`` (first seed that keeps it); EnergyError if none.
 
     Faces are taken from ``ring_slots`` and written back as chiral tags on every substituted ring
     atom, stereocentre or not, so that the embedding puts each group on the same face as the
     analysis does (for a non-stereogenic atom the analysis' choice is arbitrary but fixed)."""
+    mol, ring = _ring_fragment(mol, ring)
     slots = ring_slots(mol, ring)
     faces = {s.atom: s.face for s in slots if s.atom is not None and s.is_group and s.face is not None}
-    mh = Chem.AddHs(set_faces(mol, ring, faces, clean=False))
+    mh = Chem.AddHs(set_faces(mol, ring, faces))
     want = tuple(points_up(chair, k) for k in range(6))
     coord_map = {}
     for k, atom in enumerate(ring.atoms):
@@ -87,8 +88,11 @@ def build_chair(mol: Chem.Mol, ring: ChairRing, chair: int, variant: str = "MMFF
         params.enforceChirality = True
         params.SetCoordMap(coord_map)
         work = Chem.Mol(mh)
-        if rdDistGeom.EmbedMolecule(work, params) < 0:
-            continue
+        try:
+            if rdDistGeom.EmbedMolecule(work, params) < 0:
+                continue
+        except Exception as exc:  # RDKit raises C++ range errors on odd inputs
+            raise EnergyError(f"the embedding failed ({exc})") from None
         props = rdForceFieldHelpers.MMFFGetMoleculeProperties(work, mmffVariant=variant)
         if props is None:
             raise EnergyError("MMFF94 has no parameters for this molecule")
@@ -100,12 +104,28 @@ def build_chair(mol: Chem.Mol, ring: ChairRing, chair: int, variant: str = "MMFF
             continue
         if not _faces_hold(work, ring, faces, pts):
             continue
-        energy = ff.CalcEnergy()
-        if best is None or energy < best.energy_kcal_mol:
-            best = ChairGeometry(chair, energy, theta, q, work)
+        # one good structure is enough: side chains are not searched anyway, and speed matters
+        best = ChairGeometry(chair, ff.CalcEnergy(), theta, q, work)
+        break
     if best is None:
         raise EnergyError(f"MMFF94 did not keep chair {chair} of the ring of atoms {list(ring.atoms)}")
     return best
+
+
+def _ring_fragment(mol: Chem.Mol, ring: ChairRing) -> tuple[Chem.Mol, ChairRing]:
+    """Only the fragment that holds the ring (salts and solvents are left out of the embedding)."""
+    pieces = Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False)
+    if len(pieces) == 1:
+        return mol, ring
+    keep = next(p for p in pieces if ring.atoms[0] in p)
+    index = {old: new for new, old in enumerate(sorted(keep))}
+    editable = Chem.RWMol(mol)
+    for atom in sorted((a for a in range(mol.GetNumAtoms()) if a not in index), reverse=True):
+        editable.RemoveAtom(atom)
+    fragment = editable.GetMol()
+    Chem.SanitizeMol(fragment)
+    moved = ChairRing(tuple(index[a] for a in ring.atoms), ring.kind, ring.locants, ring.elements, ring.trigonal)
+    return fragment, moved
 
 
 def _faces_hold(mol: Chem.Mol, ring: ChairRing, faces: dict, pts: np.ndarray) -> bool:

@@ -94,6 +94,11 @@ def chair_terms(
         axial_value[p.slot] = value
         if p.orientation != AXIAL:
             continue
+        if g.estimated_as is None and any(tables.sources()[k].from_memory for k in row.sources[:1]):
+            warnings.append(
+                f"the A-value of {g.label} at {loc[p.slot.ring_index]} ({value:g}) is from memory, "
+                "not from a checked compilation"
+            )
         terms.append(
             Term(
                 "a-value",
@@ -102,7 +107,7 @@ def chair_terms(
                 + (f" (estimated as {g.estimated_as}: value of {row.label})" if g.estimated_as else ""),
                 _atoms(p),
                 value,
-                row.sources,
+                (("class",) + row.sources) if g.estimated_as else row.sources,
                 estimated=g.estimated_as is not None,
             )
         )

@@ -1,0 +1,97 @@
+"""Unspecified ring stereo: one analysis per relative configuration, never a guess.
+
+The outside reference for the counts is RDKit's stereoisomer enumeration with standard InChI as
+identity, enantiomers merged (a relative configuration covers both).
+"""
+
+from __future__ import annotations
+
+import pytest
+from rdkit import Chem
+from rdkit.Chem.EnumerateStereoisomers import EnumerateStereoisomers, StereoEnumerationOptions
+
+import chairdraw
+from chairdraw.faces import mirror
+
+
+def _rdkit_relative_count(smiles: str) -> int:
+    mol = Chem.MolFromSmiles(smiles)
+    keys = set()
+    for iso in EnumerateStereoisomers(mol, options=StereoEnumerationOptions(unique=True)):
+        keys.add(min(Chem.MolToInchi(iso), Chem.MolToInchi(mirror(iso))))
+    return len(keys)
+
+
+CASES = [
+    ("CC1CCC(O)CC1", "4-methylcyclohexanol: cis and trans"),
+    ("CC1CCCC(C)C1", "1,3-dimethylcyclohexane: cis (meso) and trans (a pair)"),
+    ("CC1CC(C)CC(C)C1", "1,3,5-trimethylcyclohexane: all-cis and cis,cis,trans"),
+    ("OC1C(O)C(O)C(O)C(O)C1O", "inositol: 9 stereoisomers, one enantiomeric pair (chiro)"),
+    ("OCC1OC(O)C(O)C(O)C1O", "aldohexopyranose: 32 stereoisomers, 16 relative configurations"),
+    ("CC1CCCCC1C", "1,2-dimethylcyclohexane"),
+    ("CC1(O)CCC(C)CC1", "1,4-dimethylcyclohexan-1-ol: geminal centre"),
+]
+
+
+@pytest.mark.parametrize("smiles, why", CASES, ids=[w for _, w in CASES])
+def test_one_result_per_relative_configuration(smiles, why):
+    result = chairdraw.analyze(smiles)
+    assert len(result.rings) == _rdkit_relative_count(smiles), why
+    identities = set()
+    for ring in result.rings:
+        assert ring.configuration is not None
+        mol = Chem.MolFromSmiles(ring.configuration.smiles)
+        identities.add(min(Chem.MolToInchi(mol), Chem.MolToInchi(mirror(mol))))
+        assert any("assumed" in c.status for c in ring.stereo)
+        assert any("analysed separately" in n for n in ring.notes)
+    assert len(identities) == len(result.rings)  # no configuration twice
+
+
+def test_configuration_faces_match_its_own_smiles():
+    # re-analysing the labelled SMILES must give the same chairs (it is fully specified)
+    for ring in chairdraw.analyze("CC1CCC(O)CC1").rings:
+        again = chairdraw.analyze(ring.configuration.smiles).rings[0]
+        assert again.configuration is None
+        assert again.delta_g_kcal_mol == pytest.approx(ring.delta_g_kcal_mol)
+
+
+def test_labels_say_cis_and_trans():
+    labels = sorted(r.configuration.label for r in chairdraw.analyze("CC1CCC(O)CC1").rings)
+    assert labels == ["r-1,c-4 (cis)", "r-1,t-4 (trans)"]
+    # trans-4-methylcyclohexanol is diequatorial in its favoured chair (fact of the trade)
+    trans = next(r for r in chairdraw.analyze("CC1CCC(O)CC1").rings if "trans" in r.configuration.label)
+    assert all(p.orientation == "equatorial" for p in trans.favored.positions if p.label != "H")
+
+
+def test_single_open_centre_is_analysed_once_with_a_note():
+    result = chairdraw.analyze("CC1CCCC(=O)C1")  # 3-methylcyclohexanone, one stereocentre
+    assert len(result.rings) == 1
+    ring = result.rings[0]
+    assert any("both enantiomers" in n for n in ring.notes)
+    assert ring.stereo[0].status.startswith("unspecified")
+
+
+def test_specified_centres_are_reported_specified():
+    ring = chairdraw.analyze("C[C@H]1CC[C@@H](O)CC1").rings[0]
+    assert [c.status for c in ring.stereo] == ["specified", "specified"]
+    assert ring.configuration is None
+
+
+def test_wavy_bond_centre_is_unknown(tmp_path):
+    # a wavy (V2000 stereo 4) bond on one of two ring centres: RDKit marks it Unknown
+    mol = Chem.MolFromSmiles("C[C@H]1CC[C@@H](O)CC1")
+    from rdkit.Chem import rdDepictor
+
+    rdDepictor.Compute2DCoords(mol)
+    Chem.WedgeMolBonds(mol, mol.GetConformer())
+    block = Chem.MolToMolBlock(mol)
+    lines = block.splitlines()
+    counts = lines[3]
+    n_atoms = int(counts[0:3])
+    for k in range(4 + n_atoms, 4 + n_atoms + int(counts[3:6])):
+        if lines[k][9:12].strip() in ("1", "6"):
+            lines[k] = lines[k][:9] + "  4" + lines[k][12:]
+            break
+    result = chairdraw.analyze("\n".join(lines) + "\n")
+    statuses = {c.status.split(",")[0] for r in result.rings for c in r.stereo}
+    assert "unknown" in statuses
