@@ -10,13 +10,13 @@ from __future__ import annotations
 
 from rdkit import Chem
 
-from . import _rdkit
-from .chairs import AXIAL, chair_name, inverting_choices, place, points_up
+from .chairs import AXIAL, EQUATORIAL, chair_name, inverting_choices, points_up
 from .configurations import enumerate_faces, faces_of
 from .energy import equilibrium, forcefield, tables
-from .energy.terms import NO_POSITION_VALUE, chair_terms
+from .energy.terms import NO_POSITION_VALUE, ChairModel, Key
 from .errors import EnergyError, StereoError, UsageError
-from .faces import CCW, TOP, Slot, ring_slots, set_faces
+from .faces import BOTTOM, CCW, TOP, Slot, ring_slots
+from .molgraph import MolGraph
 from .read import Structure, read
 from .results import Analysis, Centre, Chair, Configuration, Position, RingResult
 from .rings import ChairRing, find_rings
@@ -53,24 +53,23 @@ class Analyzer:
 
     def analyze(self, structure: Structure) -> Analysis:
         mol = structure.mol
-        rings, refused = find_rings(mol)
-        status = _stereo_status(mol)
+        graph = MolGraph(mol)
+        rings, refused = find_rings(mol, graph)
+        status = _stereo_status(mol) if rings else {}
         results: list[RingResult] = []
         for ring in rings:
             try:
-                results.extend(self._ring(mol, ring, status))
+                results.extend(self._ring(mol, graph, ring, status))
             except StereoError as exc:
                 raise exc.with_record(structure.label) from None
         notes = list(structure.notes)
         if not rings:
             notes.append("no ring that can take a chair")
-        heavy = Chem.RemoveHs(mol, sanitize=False) if _has_h_atoms(mol) else mol
         return Analysis(
             record=structure.record,
             source=structure.source,
             format=structure.format,
-            smiles=Chem.MolToSmiles(heavy),
-            inchi=_rdkit.standard_inchi(mol),
+            mol=mol,
             temperature_K=self.temperature,
             solvent=self.solvent,
             stereo_meaning=structure.stereo_meaning,
@@ -81,17 +80,21 @@ class Analyzer:
 
     # --- one ring ---------------------------------------------------------------------------
 
-    def _ring(self, mol: Chem.Mol, ring: ChairRing, status: dict[int, str]) -> list[RingResult]:
+    def _ring(self, mol: Chem.Mol, graph: MolGraph, ring: ChairRing, status: dict[int, str]) -> list[RingResult]:
         base_slots = ring_slots(mol, ring)
-        groups = self._groups(mol, base_slots)
+        groups = _groups(mol, graph, base_slots)
+        model = ChairModel(ring, groups, self.solvent, {_key(s): s.ring_index for s in base_slots if _key(s) in groups})
         return [
-            self._with_forcefield(m, ring, r) for m, r in self._configurations(mol, ring, status, base_slots, groups)
+            self._with_forcefield(m, ring, r)
+            for m, r in self._configurations(mol, ring, status, base_slots, groups, model)
         ]
 
-    def _with_forcefield(self, mol: Chem.Mol, ring: ChairRing, result: RingResult) -> RingResult:
+    def _with_forcefield(self, mol: Chem.Mol | Configuration, ring: ChairRing, result: RingResult) -> RingResult:
         estimated = any(p.estimated for p in result.chairs[0].positions)
         if self.forcefield == "never" or (self.forcefield == "auto" and not estimated):
             return result
+        if isinstance(mol, Configuration):
+            mol = mol.molecule
         try:
             energies = forcefield.chair_energies(mol, ring)
         except EnergyError as exc:
@@ -106,14 +109,17 @@ class Analyzer:
             )
         return _with(result, forcefield_kcal_mol=energies, warnings=warnings)
 
-    def _configurations(self, mol, ring, status, base_slots, groups) -> list[tuple[Chem.Mol, RingResult]]:
-        """(molecule with the ring's stereo as analysed, result) for each configuration."""
+    def _configurations(
+        self, mol, ring, status, base_slots, groups, model
+    ) -> list[tuple[Chem.Mol | Configuration, RingResult]]:
+        """(molecule or configuration whose stereo was analysed, result) for each configuration."""
         centres = [a for a in ring.atoms if a in status]
         open_ = [a for a in centres if status[a] != "specified"]
         loc = dict(zip(ring.atoms, ring.locants))
+        chairs = _ChairBuilder(ring, model, self.temperature, base_slots)
         if not open_:
             stereo = tuple(Centre(a, loc[a], "specified") for a in centres)
-            return [(mol, self._chairs(ring, base_slots, groups, stereo))]
+            return [(mol, chairs.build(base_slots, stereo))]
         if len(open_) > MAX_OPEN_CENTRES:
             raise StereoError(f"{len(open_)} unspecified centres in one ring: too many to enumerate")
         if len(centres) == 1:
@@ -123,54 +129,71 @@ class Analyzer:
                 f"the only stereocentre of this ring ({loc[open_[0]]}) is {status[open_[0]]}: both enantiomers "
                 "have mirror-image chairs of equal energy, so one is analysed"
             )
-            result = self._chairs(ring, ring_slots(fixed, ring), groups, stereo)
-            return [(fixed, _with(result, notes=result.notes + (note,)))]
+            return [(fixed, chairs.build(ring_slots(fixed, ring), stereo, notes=(note,)))]
         others = any(v == "specified" for a, v in status.items() if a not in ring.atoms)
-        out = []
+        stereo = tuple(
+            Centre(a, loc[a], "specified" if status[a] == "specified" else f"{status[a]}, assumed") for a in centres
+        )
+        sizes = {k: _size(g) for k, g in groups.items()}
+        out: list[tuple[Chem.Mol | Configuration, RingResult]] = []
         for slots in enumerate_faces(mol, ring, base_slots, open_, mirror_ok=not others):
-            candidate = set_faces(mol, ring, faces_of(slots))
-            label = relative_label(ring, slots, groups, centres)
-            stereo = tuple(
-                Centre(a, loc[a], "specified" if status[a] == "specified" else f"{status[a]}, assumed") for a in centres
-            )
-            config = Configuration(label, Chem.MolToSmiles(candidate))
-            result = self._chairs(ring, slots, groups, stereo, config)
+            label = relative_label(ring, slots, sizes, centres)
+            config = Configuration.of(label, mol, ring, faces_of(slots))
             note = (
                 f"{len(open_)} ring stereocentres are {_words(status, open_)}: each relative configuration "
                 f"is analysed separately; this is {label}"
             )
-            out.append((candidate, _with(result, notes=result.notes + (note,))))
+            out.append((config, chairs.build(slots, stereo, config, notes=(note,))))
         return out
 
-    def _groups(self, mol: Chem.Mol, slots: tuple[Slot, ...]) -> dict[tuple[int, int | None, str], Group]:
-        bonds = [
-            (s.ring_atom, s.atom) for s in slots if s.atom is not None and s.is_group and s.element not in ("D", "T")
+
+class _ChairBuilder:
+    """Both chairs of one ring for a face assignment, with the ring's energy model.
+
+    Slots come in the same order for every configuration of a ring (only faces change), so
+    positions are made once per (slot, face, orientation) and reused."""
+
+    def __init__(self, ring: ChairRing, model: ChairModel, temperature: float, slots: tuple[Slot, ...]):
+        self.ring = ring
+        self.model = model
+        self.temperature = temperature
+        number = {e.key: n for n, e in enumerate(model.entries)}
+        self.entry_at = [number.get(_key(s)) for s in slots]
+        self.labels = {e.key: (e.group.label, bool(e.group.estimated_as)) for e in model.entries}
+        self.ring_warnings = model.ring_warnings()
+        self.names = (chair_name(ring, 0), chair_name(ring, 1))
+        self.up = tuple(tuple(points_up(chair, k) for k in range(6)) for chair in (0, 1))
+        self.up_atoms = tuple(tuple(a for k, a in enumerate(ring.atoms) if self.up[chair][k]) for chair in (0, 1))
+        # one dict per way of putting the inverting ring atoms' positions axial: ring index -> slot number
+        self.choices = [
+            {i: slots.index(s) for i, s in choice.items()} for choice in inverting_choices(slots)
         ]
-        smiles = fragments(mol, bonds)  # type: ignore[arg-type]
-        out: dict[tuple[int, int | None, str], Group] = {}
-        for s in slots:
-            if s.element in ("D", "T"):
-                out[(s.ring_atom, s.atom, s.element)] = recognise(hydrogen_isotope_fragment(s.element))
-            elif s.is_group and s.atom is not None:
-                out[(s.ring_atom, s.atom, s.element)] = recognise(smiles[(s.ring_atom, s.atom)])
-            elif s.element == "H" and s.inverting:
-                out[(s.ring_atom, s.atom, "H")] = _N_H
-        return out
+        self._positions: dict[tuple[int, bool, bool], Position] = {}
 
-    def _chairs(self, ring, slots, groups, stereo, config=None) -> RingResult:
-        by_slot = {
-            s: groups[(s.ring_atom, s.atom, s.element)] for s in slots if (s.ring_atom, s.atom, s.element) in groups
-        }
+    def build(self, slots, stereo, config: Configuration | None = None, notes: tuple[str, ...] = ()) -> RingResult:
+        ring, model = self.ring, self.model
         built = []
         warnings: list[str] = []
         for chair in (0, 1):
+            up = self.up[chair]
             best = None
-            for choice in inverting_choices(slots):
-                placements = place(chair, slots, choice)
-                terms, warn = chair_terms(ring, placements, by_slot, self.solvent)
-                energy = sum(t.value for t in terms)
+            for choice in self.choices:
+                axial = [False] * len(model.entries)
+                positions = []
+                for j, s in enumerate(slots):
+                    if s.face is not None:
+                        top = s.face == TOP
+                        ax = top == up[s.ring_index]
+                    else:
+                        ax = choice[s.ring_index] == j
+                        top = ax == up[s.ring_index]
+                    n = self.entry_at[j]
+                    if n is not None:
+                        axial[n] = ax
+                    positions.append(self._positions.get((j, top, ax)) or self._position(j, s, top, ax))
+                energy, terms, warn = model.evaluate(axial)
                 if best is None or energy < best[0] - 1e-9:
-                    best = (energy, placements, terms, warn)
+                    best = (energy, positions, terms, warn)
             assert best is not None
             built.append(best)
             warnings.extend(w for w in best[3] if w not in warnings)
@@ -178,21 +201,19 @@ class Analyzer:
         pops = equilibrium.populations(energies, self.temperature)
         low = min(energies)
         degenerate = abs(energies[0] - energies[1]) < equilibrium.DEGENERATE_KCAL
-        chairs = []
-        for chair, (energy, placements, terms, _) in enumerate(built):
-            positions = tuple(_position(ring, p, by_slot) for p in placements)
-            chairs.append(
-                Chair(
-                    name=chair_name(ring, chair),
-                    up_atoms=tuple(a for k, a in enumerate(ring.atoms) if points_up(chair, k)),
-                    energy_kcal_mol=energy - low,
-                    population=pops[chair],
-                    favored=(not degenerate) and energy == low,
-                    terms=tuple(terms),
-                    positions=positions,
-                )
+        chairs = [
+            Chair(
+                name=self.names[chair],
+                up_atoms=self.up_atoms[chair],
+                energy_kcal_mol=energy - low,
+                population=pops[chair],
+                favored=(not degenerate) and energy == low,
+                terms=tuple(terms),
+                positions=tuple(positions),
             )
-        warnings = _group_warnings(ring, by_slot) + _merge_position_warnings(warnings)
+            for chair, (energy, positions, terms, _) in enumerate(built)
+        ]
+        warnings = self.ring_warnings + _merge_position_warnings(warnings)
         if low >= TWIST_WARNING_KCAL:
             warnings.append(
                 f"both chairs carry at least {low:.1f} kcal/mol of strain: a twist-boat probably competes "
@@ -215,7 +236,27 @@ class Analyzer:
             configuration=config,
             trigonal_atoms=tuple(ring.atoms[k] for k in ring.trigonal),
             warnings=tuple(warnings),
+            notes=notes,
         )
+
+    def _position(self, j: int, s: Slot, top: bool, axial: bool) -> Position:
+        label, estimated = self.labels.get(_key(s), (s.element, False))
+        if s.element == "LP":
+            label = "lone pair"
+        elif s.element == "H":
+            label, estimated = "H", False
+        found = Position(
+            ring_atom=s.ring_atom,
+            locant=self.ring.locants[s.ring_index],
+            atom=s.atom,
+            label=label,
+            face=TOP if top else BOTTOM,
+            orientation=AXIAL if axial else EQUATORIAL,
+            inverting=s.inverting,
+            estimated=estimated,
+        )
+        self._positions[(j, top, axial)] = found
+        return found
 
 
 def analyze(
@@ -244,10 +285,6 @@ def _stereo_status(mol: Chem.Mol) -> dict[int, str]:
     }
 
 
-def _has_h_atoms(mol: Chem.Mol) -> bool:
-    return any(a.GetAtomicNum() == 1 for a in mol.GetAtoms())
-
-
 def _with_tags(mol: Chem.Mol, tags: dict[int, Chem.ChiralType]) -> Chem.Mol:
     out = Chem.Mol(mol)
     for idx, tag in tags.items():
@@ -264,22 +301,6 @@ def _words(status: dict[int, str], atoms: list[int]) -> str:
     return " or ".join(kinds)
 
 
-def _position(ring: ChairRing, p, by_slot) -> Position:
-    s = p.slot
-    g = by_slot.get(s)
-    label = "lone pair" if s.element == "LP" else ("H" if s.element == "H" else (g.label if g else s.element))
-    return Position(
-        ring_atom=s.ring_atom,
-        locant=ring.locants[s.ring_index],
-        atom=s.atom,
-        label=label,
-        face=p.face,
-        orientation=p.orientation,
-        inverting=s.inverting,
-        estimated=bool(g and g.estimated_as and s.element != "H"),
-    )
-
-
 def _merge_position_warnings(warnings: list[str]) -> list[str]:
     """One line for all groups that got the cyclohexane value in a heterocycle."""
     where = [w[len(NO_POSITION_VALUE) :] for w in warnings if w.startswith(NO_POSITION_VALUE)]
@@ -293,43 +314,16 @@ def _merge_position_warnings(warnings: list[str]) -> list[str]:
     return rest
 
 
-def _group_warnings(ring: ChairRing, by_slot: dict[Slot, Group]) -> list[str]:
-    out = []
-    per_atom: dict[int, list[Group]] = {}
-    for s, g in by_slot.items():
-        if s.is_group:
-            per_atom.setdefault(s.ring_index, []).append(g)
-    for i, gs in sorted(per_atom.items()):
-        where = ring.locants[i]
-        for g in gs:
-            if g.estimated_as:
-                value = g.rows[0].aprotic
-                if g.estimated_as == "unclassified":
-                    out.append(
-                        f"{g.label} at {where}: no A-value and no class; a placeholder of {value:g} kcal/mol is used"
-                    )
-                else:
-                    out.append(
-                        f"{g.label} at {where} is not in the A-value table: estimated as {g.estimated_as} "
-                        f"(value of {g.rows[0].label}, {value:g} kcal/mol)"
-                    )
-        if len(gs) == 2 and ring.elements[i] == "C":
-            out.append(
-                f"geminal {gs[0].label}/{gs[1].label} at {where}: A-values are not additive for geminal pairs "
-                "(1-methyl-1-phenylcyclohexane prefers axial phenyl, Eliel & Manoharan 1981)"
-            )
-    return out
-
-
-def relative_label(ring: ChairRing, slots: tuple[Slot, ...], groups, centres: list[int]) -> str:
-    """r/c/t descriptor of the ring's stereocentres, e.g. 'r-1,c-4 (cis)'."""
+def relative_label(ring: ChairRing, slots: tuple[Slot, ...], sizes: dict[Key, int], centres: list[int]) -> str:
+    """r/c/t descriptor of the ring's stereocentres, e.g. 'r-1,c-4 (cis)'; ``sizes`` ranks the
+    groups of one ring atom (the largest is the reference group there)."""
     principal: list[tuple[int, Slot]] = []
     for atom in centres:
         i = ring.atoms.index(atom)
         here = [s for s in slots if s.ring_index == i and s.is_group and s.face is not None]
         if not here:
             continue
-        here.sort(key=lambda s: (-_size(groups.get((s.ring_atom, s.atom, s.element))), s.atom or 0))
+        here.sort(key=lambda s: (-sizes.get(_key(s), 0), s.atom or 0))
         principal.append((i, here[0]))
     if not principal:
         return "unlabelled"
@@ -344,10 +338,27 @@ def relative_label(ring: ChairRing, slots: tuple[Slot, ...], groups, centres: li
     return label
 
 
-def _size(group: Group | None) -> int:
-    if group is None:
-        return 0
+def _size(group: Group) -> int:
     return sum(1 for ch in group.fragment if ch.isalpha() and ch.isupper())
+
+
+def _key(slot: Slot) -> Key:
+    return (slot.ring_atom, slot.atom, slot.element)
+
+
+def _groups(mol: Chem.Mol, graph: MolGraph, slots: tuple[Slot, ...]) -> dict[Key, Group]:
+    """The Group of every position that carries one (substituents, D/T, the H of a ring N-H)."""
+    bonds = [(s.ring_atom, s.atom) for s in slots if s.atom is not None and s.is_group and s.element not in ("D", "T")]
+    smiles = fragments(mol, bonds, graph)  # type: ignore[arg-type]
+    out: dict[Key, Group] = {}
+    for s in slots:
+        if s.element in ("D", "T"):
+            out[_key(s)] = recognise(hydrogen_isotope_fragment(s.element))
+        elif s.is_group and s.atom is not None:
+            out[_key(s)] = recognise(smiles[(s.ring_atom, s.atom)])
+        elif s.element == "H" and s.inverting:
+            out[_key(s)] = _N_H
+    return out
 
 
 __all__ = ["Analyzer", "analyze", "relative_label", "AXIAL", "TOP"]

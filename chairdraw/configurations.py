@@ -23,6 +23,12 @@ Pattern = tuple[str, ...]
 
 def ring_symmetries(mol: Chem.Mol, ring: ChairRing) -> list[tuple[tuple[int, ...], bool]]:
     """(index map, numbering reversed) for every rotation/reflection that keeps the ring's ranks."""
+    return _symmetries_and_ranks(mol, ring)[0]
+
+
+def _symmetries_and_ranks(mol: Chem.Mol, ring: ChairRing) -> tuple[list[tuple[tuple[int, ...], bool]], list[int]]:
+    """The ring symmetries and the atom ranks they were read from: canonical ranks with the ring's
+    own tags cleared (stereo elsewhere in the molecule still breaks a symmetry)."""
     bare = Chem.Mol(mol)
     for atom in ring.atoms:
         bare.GetAtomWithIdx(atom).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
@@ -34,7 +40,7 @@ def ring_symmetries(mol: Chem.Mol, ring: ChairRing) -> list[tuple[tuple[int, ...
             perm = tuple(((-i if reverse else i) + shift) % 6 for i in range(6))
             if all(ring_ranks[perm[i]] == ring_ranks[i] for i in range(6)):
                 out.append((perm, reverse))
-    return out
+    return out, ranks
 
 
 def _principal(slots: tuple[Slot, ...], ranks: dict[int | None, int]) -> dict[int, Slot]:
@@ -80,18 +86,17 @@ def enumerate_faces(
     mol: Chem.Mol, ring: ChairRing, slots: tuple[Slot, ...], open_atoms: list[int], mirror_ok: bool
 ) -> list[tuple[Slot, ...]]:
     """Distinct face assignments of the open centres (the fixed ones keep theirs)."""
-    ranks_all = list(Chem.CanonicalRankAtoms(mol, breakTies=False, includeChirality=False))
+    symmetries, ranks_all = _symmetries_and_ranks(mol, ring)
     ranks: dict[int | None, int] = {a: r for a, r in enumerate(ranks_all)}
     principal = {i: s.atom for i, s in _principal(slots, ranks).items()}
-    symmetries = ring_symmetries(mol, ring)
     open_index = [ring.atoms.index(a) for a in open_atoms]
+    # each slot and its face-flipped twin, made once
+    twins = [(s, replace(s, face=_flip(s.face)) if s.face is not None and s.ring_index in open_index else s) for s in slots]
     seen: set[Pattern] = set()
     out = []
     for flips in itertools.product((False, True), repeat=len(open_index)):
         flipped = {i for i, f in zip(open_index, flips) if f}
-        candidate = tuple(
-            replace(s, face=_flip(s.face)) if s.ring_index in flipped and s.face is not None else s for s in slots
-        )
+        candidate = tuple(twin if s.ring_index in flipped else s for s, twin in twins)
         key = _canonical(_pattern(candidate, principal), symmetries, mirror_ok)
         if key in seen:
             continue

@@ -57,6 +57,8 @@ class Structure:
         """What the stereo of the input claims: 'absolute', 'relative', 'racemic' or 'mixed'."""
         kinds = {g.kind for g in self.stereo_groups}
         if not kinds:
+            if self.chiral_flag != 0:  # only a molfile's chiral flag 0 makes stereo relative
+                return "absolute"
             has_stereo = any(
                 a.GetChiralTag() in (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
                 for a in self.mol.GetAtoms()

@@ -2,13 +2,16 @@
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass, field
+from functools import cached_property
 
 from rdkit import Chem
 
 from . import _rdkit
 from .energy.terms import Term
-from .rings import RefusedRing
+from .faces import set_faces
+from .rings import ChairRing, RefusedRing
 
 SCHEMA_VERSION = "1"
 
@@ -78,16 +81,32 @@ class Centre:
 
 @dataclass(frozen=True)
 class Configuration:
-    """A relative configuration chosen for analysis because the input left it open."""
+    """A relative configuration chosen for analysis because the input left it open.
+
+    Its SMILES and InChI are computed on first use (an enumerated sugar ring has 16
+    configurations, and most callers look at the chairs only)."""
 
     label: str
-    smiles: str
+    faces: tuple[tuple[int, str], ...]  # (substituent atom, face) that fix this configuration
+    mol: Chem.Mol = field(repr=False, compare=False)  # the molecule the faces apply to
+    ring: ChairRing = field(repr=False, compare=False)
 
-    @property
+    @classmethod
+    def of(cls, label: str, mol: Chem.Mol, ring: ChairRing, faces: Mapping[int, str]) -> Configuration:
+        return cls(label, tuple(sorted(faces.items())), mol, ring)
+
+    @cached_property
+    def molecule(self) -> Chem.Mol:
+        """The input molecule with this configuration's chiral tags."""
+        return set_faces(self.mol, self.ring, dict(self.faces))
+
+    @cached_property
+    def smiles(self) -> str:
+        return Chem.MolToSmiles(self.molecule)
+
+    @cached_property
     def inchi(self) -> str:
-        # computed on demand: an enumerated sugar ring has 16 configurations
-        mol = Chem.MolFromSmiles(self.smiles)
-        return _rdkit.standard_inchi(mol) if mol is not None else ""
+        return _rdkit.standard_inchi(self.molecule)
 
     def to_dict(self) -> dict:
         return {"label": self.label, "smiles": self.smiles, "inchi": self.inchi}
@@ -134,11 +153,13 @@ class RingResult:
 
 @dataclass(frozen=True)
 class Analysis:
+    """The analysis of one structure. ``smiles`` and ``inchi`` (identity strings of the input as
+    read) are computed on first use."""
+
     record: str | None
     source: str
     format: str
-    smiles: str
-    inchi: str
+    mol: Chem.Mol = field(repr=False, compare=False)
     temperature_K: float
     solvent: str
     stereo_meaning: str
@@ -152,6 +173,15 @@ class Analysis:
             "of configuration or an organisation's registration rules."
         )
     )
+
+    @cached_property
+    def smiles(self) -> str:
+        heavy = Chem.RemoveHs(self.mol, sanitize=False) if _has_h_atoms(self.mol) else self.mol
+        return Chem.MolToSmiles(heavy)
+
+    @cached_property
+    def inchi(self) -> str:
+        return _rdkit.standard_inchi(self.mol)
 
     def to_dict(self) -> dict:
         return {
@@ -170,3 +200,7 @@ class Analysis:
             "notes": list(self.notes),
             "disclaimer": self.disclaimer,
         }
+
+
+def _has_h_atoms(mol: Chem.Mol) -> bool:
+    return any(a.GetAtomicNum() == 1 for a in mol.GetAtoms())

@@ -17,6 +17,8 @@ from dataclasses import dataclass
 
 from rdkit import Chem
 
+from .molgraph import MolGraph
+
 CHAIR_ELEMENTS = {"C", "N", "O", "S"}
 _SENIORITY = {"O": 0, "S": 1, "N": 2}
 
@@ -74,8 +76,9 @@ class RefusedRing:
         return {"atoms": list(self.atoms), "reason": self.reason}
 
 
-def find_rings(mol: Chem.Mol) -> tuple[list[ChairRing], list[RefusedRing]]:
+def find_rings(mol: Chem.Mol, graph: MolGraph | None = None) -> tuple[list[ChairRing], list[RefusedRing]]:
     """Every six-membered ring of the molecule, either accepted as a chair ring or refused."""
+    graph = graph or MolGraph(mol)
     info = mol.GetRingInfo()
     accepted: list[ChairRing] = []
     refused: list[RefusedRing] = []
@@ -83,71 +86,115 @@ def find_rings(mol: Chem.Mol) -> tuple[list[ChairRing], list[RefusedRing]]:
     for ring in all_rings:
         if len(ring) != 6:
             continue
-        reason = _refusal(mol, ring, all_rings)
-        if reason:
-            refused.append(RefusedRing(ring, reason))
-        else:
-            accepted.append(_numbered(mol, ring))
+        reason = _flat(graph, ring)
+        if reason is None:
+            facts = _facts(graph, ring)
+            reason = _refusal(graph, ring, all_rings, facts)
+            if reason is None:
+                accepted.append(_numbered(ring, facts))
+                continue
+        refused.append(RefusedRing(ring, reason))
     known = {frozenset(r) for r in all_rings}
-    for ring in _hidden_six_rings(mol, all_rings):
+    for ring in _hidden_six_rings(graph, all_rings):
         if frozenset(ring) not in known:
             known.add(frozenset(ring))
-            refused.append(RefusedRing(ring, "bridged ring system (a six-membered ring outside the smallest set of rings): not supported yet"))
+            refused.append(
+                RefusedRing(
+                    ring,
+                    "bridged ring system (a six-membered ring outside the smallest set of rings): not supported yet",
+                )
+            )
     return accepted, refused
 
 
-def _hidden_six_rings(mol: Chem.Mol, all_rings: list[tuple[int, ...]]) -> list[tuple[int, ...]]:
+def _hidden_six_rings(graph: MolGraph, all_rings: list[tuple[int, ...]]) -> list[tuple[int, ...]]:
     """Six-membered cycles of polycyclic systems that RDKit's SSSR leaves out (norbornane's)."""
-    shared = {a for r in all_rings for a in r if sum(a in q for q in all_rings) > 1}
-    if not shared:
+    sets = [set(r) for r in all_rings]
+    polycyclic = {a for k, r in enumerate(sets) for a in r if any(r & q for m, q in enumerate(sets) if m != k)}
+    if not polycyclic:
         return []
-    in_rings = {a for r in all_rings for a in r}
-    found: list[tuple[int, ...]] = []
+    found: dict[frozenset, tuple[int, ...]] = {}
 
     def walk(path: list[int]) -> None:
-        last = path[-1]
-        for n in mol.GetAtomWithIdx(last).GetNeighbors():
-            j = n.GetIdx()
-            if j not in in_rings:
+        # each cycle is met from its lowest atom, in both directions; the dict keeps one
+        for j in graph.neighbours[path[-1]]:
+            if j not in polycyclic:
                 continue
             if len(path) == 6:
                 if j == path[0]:
-                    found.append(tuple(path))
-                continue
-            if j not in path and j > path[0]:
+                    found.setdefault(frozenset(path), tuple(path))
+            elif j not in path and j > path[0]:
                 walk(path + [j])
 
-    for start in sorted(shared):
+    for start in sorted(polycyclic):
         walk([start])
-    unique: dict[frozenset, tuple[int, ...]] = {}
-    for cycle in found:
-        unique.setdefault(frozenset(cycle), cycle)
-    return list(unique.values())
+    return list(found.values())
 
 
-def _refusal(mol: Chem.Mol, ring: tuple[int, ...], all_rings: list[tuple[int, ...]]) -> str | None:
-    atoms = [mol.GetAtomWithIdx(i) for i in ring]
-    odd = [a for a in atoms if a.GetSymbol() not in CHAIR_ELEMENTS]
-    if odd:
-        return f"ring atom {odd[0].GetIdx()} is {odd[0].GetSymbol()}: only rings of C, N, O and S are analysed"
-    if any(a.GetIsAromatic() for a in atoms):
-        return "aromatic ring: flat, not a chair"
+@dataclass(frozen=True)
+class _Facts:
+    """What numbering and refusal need to know about one ring atom, read once."""
+
+    symbol: str
+    degree: int
+    trigonal: bool  # exocyclic double bond on C or N (S(=O)2 stays tetrahedral)
+    oxo: bool  # exocyclic C=O
+    substituted: bool  # a non-hydrogen exocyclic neighbour
+    o_single: bool  # exocyclic O by a single bond
+    on_single: bool  # exocyclic O or N by a single bond
+
+
+def _facts(graph: MolGraph, ring: tuple[int, ...]) -> dict[int, _Facts]:
     members = set(ring)
-    for k in range(6):
-        bond = mol.GetBondBetweenAtoms(ring[k], ring[(k + 1) % 6])
-        if bond.GetBondType() != Chem.BondType.SINGLE:
+    out = {}
+    for i in ring:
+        symbol = graph.symbol(i)
+        trig = oxo = subst = o_single = on_single = False
+        for j in graph.neighbours[i]:
+            if j in members:
+                continue
+            z = graph.z[j]
+            subst = subst or z > 1
+            order = graph.order[(i, j)]
+            if order == 2:
+                trig = trig or symbol in ("C", "N")
+                oxo = oxo or z == 8
+            elif order == 1:
+                o_single = o_single or z == 8
+                on_single = on_single or z in (7, 8)
+        out[i] = _Facts(symbol, len(graph.neighbours[i]), trig, oxo, subst, o_single, on_single)
+    return out
+
+
+def _flat(graph: MolGraph, ring: tuple[int, ...]) -> str | None:
+    """The cheap refusals, before anything else is read: odd elements, aromatic or unsaturated rings."""
+    odd = [i for i in ring if graph.symbol(i) not in CHAIR_ELEMENTS]
+    if odd:
+        return f"ring atom {odd[0]} is {graph.symbol(odd[0])}: only rings of C, N, O and S are analysed"
+    orders = [graph.order[(ring[k], ring[(k + 1) % 6])] for k in range(6)]
+    if 1.5 in orders:
+        return "aromatic ring: flat, not a chair"
+    for k, order in enumerate(orders):
+        if order != 1:
             return (
                 f"endocyclic double bond between atoms {ring[k]} and {ring[(k + 1) % 6]}: half-chair ring, not analysed"
             )
+    return None
+
+
+def _refusal(
+    graph: MolGraph, ring: tuple[int, ...], all_rings: list[tuple[int, ...]], facts: dict[int, _Facts]
+) -> str | None:
+    members = set(ring)
     for other in all_rings:
         if other == ring:
             continue
-        shared = members & set(other)
+        shared = members.intersection(other)
         if not shared:
             continue
         if len(shared) == 1:
             what = "spiro"
-        elif len(shared) == 2 and mol.GetBondBetweenAtoms(*shared) is not None:
+        elif len(shared) == 2 and tuple(shared) in graph.order:
             what = "fused"
         else:
             what = "bridged"
@@ -155,10 +202,10 @@ def _refusal(mol: Chem.Mol, ring: tuple[int, ...], all_rings: list[tuple[int, ..
             f"{what} ring system (shares atoms {', '.join(map(str, sorted(shared)))} with another ring): "
             "not supported yet"
         )
-    for a in atoms:
-        if a.GetSymbol() == "S" and a.GetDegree() == 3:
-            return f"ring sulfoxide at atom {a.GetIdx()}: sulfur stereo is not modelled yet"
-    trigonal = [k for k, a in enumerate(atoms) if _trigonal(mol, a, members)]
+    for i in ring:
+        if facts[i].symbol == "S" and facts[i].degree == 3:
+            return f"ring sulfoxide at atom {i}: sulfur stereo is not modelled yet"
+    trigonal = [k for k, i in enumerate(ring) if facts[i].trigonal]
     if len(trigonal) > 2:
         return f"{len(trigonal)} trigonal ring atoms: too flat for the chair model"
     if len(trigonal) == 2 and (trigonal[1] - trigonal[0]) % 6 in (1, 5):
@@ -166,45 +213,11 @@ def _refusal(mol: Chem.Mol, ring: tuple[int, ...], all_rings: list[tuple[int, ..
     return None
 
 
-def _trigonal(mol: Chem.Mol, atom: Chem.Atom, members: set[int]) -> bool:
-    """An exocyclic double bond makes C or N trigonal; S(=O)2 stays tetrahedral."""
-    return atom.GetSymbol() in ("C", "N") and any(
-        b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtomIdx(atom.GetIdx()) not in members
-        for b in atom.GetBonds()
-    )
-
-
-def _substituted(mol: Chem.Mol, atom_idx: int, members: set[int]) -> bool:
-    atom = mol.GetAtomWithIdx(atom_idx)
-    return any(n.GetIdx() not in members and n.GetAtomicNum() > 1 for n in atom.GetNeighbors())
-
-
-def _numbered(mol: Chem.Mol, ring: tuple[int, ...]) -> ChairRing:
-    members = set(ring)
-    symbols = {i: mol.GetAtomWithIdx(i).GetSymbol() for i in ring}
-    trig = {i for i in ring if _trigonal(mol, mol.GetAtomWithIdx(i), members)}
-    subst = {i for i in ring if _substituted(mol, i, members)}
-    # alcohols, ethers and amines name the ring carbon bearing O or N as C1 (IUPAC habit)
-    charac = {i for i in ring if symbols[i] == "C" and _o_or_n_substituted(mol, i, members)}
-
-    def key(order: tuple[int, ...]):
-        het = [k + 1 for k, a in enumerate(order) if symbols[a] != "C"]
-        ranks = [_SENIORITY.get(symbols[a], 3) for a in order if symbols[a] != "C"]
-        return (
-            het,
-            ranks,
-            [k + 1 for k, a in enumerate(order) if a in trig],
-            [k + 1 for k, a in enumerate(order) if a in charac],
-            [k + 1 for k, a in enumerate(order) if a in subst],
-            list(order),
-        )
-
-    orders = []
-    for start in range(6):
-        for step in (1, -1):
-            orders.append(tuple(ring[(start + step * k) % 6] for k in range(6)))
-    sugar = _pyranose_order(mol, orders, symbols, members)
-    order = sugar or min(orders, key=key)
+def _numbered(ring: tuple[int, ...], facts: dict[int, _Facts]) -> ChairRing:
+    symbols = {i: facts[i].symbol for i in ring}
+    orders = [tuple(ring[(start + step * k) % 6] for k in range(6)) for start in range(6) for step in (1, -1)]
+    sugar = _pyranose_order(orders, facts)
+    order = sugar or _lowest_locants(orders, facts)
     elements = tuple(symbols[a] for a in order)
     hetero = tuple((k + 1, e) for k, e in enumerate(elements) if e != "C")
     locants: tuple[str, ...]
@@ -213,42 +226,55 @@ def _numbered(mol: Chem.Mol, ring: tuple[int, ...]) -> ChairRing:
     else:
         kind = KINDS.get(hetero) or "heterocyclohexane (" + ",".join(f"{e}{k}" for k, e in hetero) + ")"
         locants = tuple(str(k + 1) for k in range(6))
+    trig = [a for a in ring if facts[a].trigonal]
     if trig and kind == "cyclohexane":
-        kind = "cyclohexanone" if all(_exo_oxo(mol, a, members) for a in trig) else "cyclohexane (exocyclic C=C)"
-    trigonal = tuple(k for k, a in enumerate(order) if a in trig)
+        kind = "cyclohexanone" if all(facts[a].oxo for a in trig) else "cyclohexane (exocyclic C=C)"
+    trigonal = tuple(k for k, a in enumerate(order) if facts[a].trigonal)
     return ChairRing(atoms=order, kind=kind, locants=locants, elements=elements, trigonal=trigonal)
 
 
-def _exo_oxo(mol: Chem.Mol, atom_idx: int, members: set[int]) -> bool:
-    atom = mol.GetAtomWithIdx(atom_idx)
-    return any(
-        b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtom(atom).GetSymbol() == "O" for b in atom.GetBonds()
-    )
+def _lowest_locants(orders: list[tuple[int, ...]], facts: dict[int, _Facts]) -> tuple[int, ...]:
+    """The numbering that IUPAC's lowest-locant habits pick: heteroatoms first (O, S, N), then
+    trigonal (C=O) atoms, then carbons bearing O or N (alcohols, ethers and amines name that
+    carbon C1), then substituted atoms, then the lowest atom indices."""
+
+    def criteria(a: int) -> tuple:
+        f = facts[a]
+        return (
+            f.symbol != "C",
+            f.trigonal,
+            f.symbol == "C" and f.on_single,
+            f.substituted,
+        )
+
+    flags = {a: criteria(a) for a in orders[0]}
+    seniority = {a: _SENIORITY.get(facts[a].symbol, 3) for a in orders[0]}
+
+    def key(order: tuple[int, ...]):
+        f = [flags[a] for a in order]
+        return (
+            [k for k in range(6) if f[k][0]],
+            [seniority[a] for a in order if flags[a][0]],
+            [k for k in range(6) if f[k][1]],
+            [k for k in range(6) if f[k][2]],
+            [k for k in range(6) if f[k][3]],
+            order,
+        )
+
+    if not any(any(v) for v in flags.values()):
+        return min(orders)
+    return min(orders, key=key)
 
 
-def _o_substituted(mol: Chem.Mol, atom_idx: int, members: set[int], symbols=("O",)) -> bool:
-    atom = mol.GetAtomWithIdx(atom_idx)
-    return any(
-        n.GetIdx() not in members
-        and n.GetSymbol() in symbols
-        and mol.GetBondBetweenAtoms(atom_idx, n.GetIdx()).GetBondType() == Chem.BondType.SINGLE
-        for n in atom.GetNeighbors()
-    )
-
-
-def _o_or_n_substituted(mol: Chem.Mol, atom_idx: int, members: set[int]) -> bool:
-    return _o_substituted(mol, atom_idx, members, ("O", "N"))
-
-
-def _pyranose_order(mol, orders, symbols, members) -> tuple[int, ...] | None:
+def _pyranose_order(orders: list[tuple[int, ...]], facts: dict[int, _Facts]) -> tuple[int, ...] | None:
     """Sugar numbering for an oxane with an O-substituted anomeric carbon and >= 3 ring C-O."""
-    elements = sorted(symbols.values())
+    elements = sorted(f.symbol for f in facts.values())
     if elements != ["C"] * 5 + ["O"]:
         return None
-    o_carbons = {i for i in members if symbols[i] == "C" and _o_substituted(mol, i, members)}
+    o_carbons = {i for i, f in facts.items() if f.symbol == "C" and f.o_single}
     if len(o_carbons) < 3:
         return None
-    candidates = [o for o in orders if symbols[o[0]] == "O" and o[1] in o_carbons]
+    candidates = [o for o in orders if facts[o[0]].symbol == "O" and o[1] in o_carbons]
     if not candidates:
         return None
     # both neighbours of O5 carry O (rare): prefer the carbon bearing two oxygens (ketose C2

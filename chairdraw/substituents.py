@@ -15,6 +15,7 @@ from functools import cache
 from rdkit import Chem
 
 from .energy import tables
+from .molgraph import MolGraph
 
 HALOGENS = {"F", "Cl", "Br", "I"}
 
@@ -128,21 +129,92 @@ def _formula_label(mol: Chem.Mol) -> str:
     return "".join(f"{el}{counts[el] if counts[el] > 1 else ''}" for el in order)
 
 
-def fragments(mol: Chem.Mol, bonds: list[tuple[int, int]]) -> dict[tuple[int, int], str]:
-    """Canonical fragment SMILES for each (ring atom, attached atom) bond, cut all at once."""
-    if not bonds:
-        return {}
+def fragments(
+    mol: Chem.Mol, bonds: list[tuple[int, int]], graph: MolGraph | None = None
+) -> dict[tuple[int, int], str]:
+    """Canonical fragment SMILES for each (ring atom, attached atom) bond.
+
+    Most substituents are small trees (OH, OAc, CH2OH, iPr): for those a rooted-tree code, which
+    is the same for two trees exactly when they are the same group, is written as SMILES and made
+    canonical once per distinct code. Substituents with a ring of their own are cut off with RDKit."""
+    graph = graph or MolGraph(mol)
+    out: dict[tuple[int, int], str] = {}
+    rest = []
+    for r, s in bonds:
+        code = _tree_code(graph, r, s)
+        if code is None:
+            rest.append((r, s))
+        else:
+            out[(r, s)] = _canonical_piece(code)
+    if rest:
+        out.update(_cut_fragments(mol, rest))
+    return out
+
+
+_BOND_SYMBOL = {1.0: "", 2.0: "=", 3.0: "#"}
+_TREE_LIMIT = 40  # atoms; a larger substituent is cut off with RDKit instead
+
+
+def _tree_code(graph: MolGraph, root: int, first: int) -> str | None:
+    """'*' + SMILES of the substituent whose branches are sorted by their own code; None when the
+    substituent has a ring, an unusual bond, or more than _TREE_LIMIT atoms. Hydrogens (also
+    drawn ones, and isotopes of H) become H counts; isotopes and stereo inside the group are
+    ignored, as in the A-value table."""
+    budget = [_TREE_LIMIT]
+
+    def code(idx: int, parent: int) -> str | None:
+        budget[0] -= 1
+        if budget[0] < 0 or idx in graph.ring_atoms:
+            return None
+        hydrogens = graph.hydrogens(idx)
+        branches = []
+        for other in graph.neighbours[idx]:
+            if other == parent:
+                continue
+            if graph.z[other] == 1:
+                hydrogens += 1
+                continue
+            symbol = _BOND_SYMBOL.get(graph.order[(idx, other)])
+            below = None if symbol is None else code(other, idx)
+            if symbol is None or below is None:
+                return None
+            branches.append(symbol + below)
+        charge = graph.charge(idx)
+        sign = "" if charge == 0 else (f"+{charge}" if charge > 0 else f"-{-charge}")
+        head = f"[{graph.symbol(idx)}H{hydrogens}{sign}]"
+        return head + "".join(f"({b})" for b in sorted(branches))
+
+    symbol = _BOND_SYMBOL.get(graph.order[(root, first)])
+    if symbol is None or graph.z[first] <= 1:
+        return None
+    body = code(first, root)
+    return None if body is None else "*" + symbol + body
+
+
+def _cut_fragments(mol: Chem.Mol, bonds: list[tuple[int, int]]) -> dict[tuple[int, int], str]:
+    """Cut all the bonds at once; one SMILES of the whole cut molecule costs about as much as one
+    fragment SMILES written from it, so the whole is written once and split at the dots."""
     indices = [mol.GetBondBetweenAtoms(r, s).GetIdx() for r, s in bonds]
     cut = Chem.FragmentOnBonds(mol, indices, addDummies=True, dummyLabels=[(0, 0)] * len(indices))
-    owner: dict[int, tuple[int, ...]] = {}
-    for piece in Chem.GetMolFrags(cut, asMols=False, sanitizeFrags=False):
+    owner: dict[int, int] = {}
+    for k, piece in enumerate(Chem.GetMolFrags(cut, asMols=False, sanitizeFrags=False)):
         for atom in piece:
-            owner[atom] = piece
-    out = {}
-    for r, s in bonds:
-        atoms = list(owner[s])
-        smiles = Chem.MolFragmentToSmiles(cut, atomsToUse=atoms, isomericSmiles=False, canonical=True)
-        if any(cut.GetAtomWithIdx(a).GetAtomicNum() == 1 for a in atoms):
-            smiles = canonical_fragment(smiles)  # hydrogens drawn as atoms (molfiles, AddHs)
-        out[(r, s)] = smiles
-    return out
+            owner[atom] = k
+    text = Chem.MolToSmiles(cut, isomericSmiles=False, canonical=True)
+    order = cut.GetProp("_smilesAtomOutputOrder").strip("[]").split(",")
+    # pieces come out whole and one after the other: the k-th piece of the text is the k-th
+    # fragment met in the output order
+    seen: list[int] = []
+    for a in order:
+        if a and owner[int(a)] not in seen:
+            seen.append(owner[int(a)])
+    text_of = dict(zip(seen, text.split(".")))
+    return {(r, s): _canonical_piece(text_of[owner[s]]) for r, s in bonds}
+
+
+@cache
+def _canonical_piece(smiles: str) -> str:
+    try:
+        return canonical_fragment(smiles)  # also drops hydrogens drawn as atoms (molfiles, AddHs)
+    except ValueError:
+        return smiles

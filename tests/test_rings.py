@@ -181,24 +181,22 @@ def test_ring_info_behind_the_polycyclic_refusals():
     assert len(decalin_rings[0] & decalin_rings[1]) == 2
 
 
-def test_norbornane_has_no_six_ring_in_sssr():
-    # today: the six-membered ring of norbornane is not in RDKit's SSSR (5+5), so it is neither
-    # analysed nor refused; only the note says so
+def test_norbornane_six_ring_refused_as_bridged():
+    # norbornane's six-membered ring (C1-C2-C3-C4-C5-C6) is outside RDKit's SSSR (two 5-rings);
+    # every six-membered ring must still be accepted or refused, never silently dropped
     analysis = rings_of("C1CC2CCC1C2")
     assert analysis.rings == ()
-    assert analysis.refused == ()
-    assert "no ring that can take a chair" in analysis.notes
+    assert len(analysis.refused) == 1
+    assert "bridged" in analysis.refused[0].reason
+    assert set(analysis.refused[0].atoms) == {0, 1, 2, 3, 4, 5}
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="bug: find_rings only looks at RDKit's SSSR, so a six-membered ring outside it (norbornane's "
-    "C1-C2-C3-C4-C5-C6) is silently dropped instead of refused as 'bridged' (rings.py promises every "
-    "six-membered ring is accepted or refused)",
-)
-def test_norbornane_six_ring_refused_as_bridged():
-    analysis = rings_of("C1CC2CCC1C2")
-    assert any("bridged" in r.reason for r in analysis.refused)
+def test_bicyclooctane_hidden_ring_refused_once():
+    # bicyclo[2.2.2]octane: three six-membered rings, two in the SSSR, all refused as bridged
+    analysis = rings_of("C1CC2CCC1CC2")
+    assert analysis.rings == ()
+    assert len({frozenset(r.atoms) for r in analysis.refused}) == 3 == len(analysis.refused)
+    assert all("bridged" in r.reason for r in analysis.refused)
 
 
 # --- several rings ------------------------------------------------------------------------------

@@ -134,6 +134,33 @@ def pair_terms() -> tuple[PairTerm, ...]:
     return tuple(out)
 
 
+@dataclass(frozen=True)
+class GeminalPair:
+    """A geminal pair measured as a pair: G(axial_group axial) - G(other axial), kcal/mol."""
+
+    axial_group: str  # label of an AValue row
+    other: str
+    value: float
+    source: str
+    note: str
+
+
+@cache
+def geminal_pairs() -> tuple[GeminalPair, ...]:
+    known = sources()
+    labels = {a.label for a in avalues()}
+    out = []
+    for line, r in _rows("geminal.txt"):
+        if r["source"] not in known:
+            raise DataFileError(f"geminal.txt, line {line}: unknown source {r['source']!r}")
+        for label in (r["axial"], r["other"]):
+            if label not in labels:
+                raise DataFileError(f"geminal.txt, line {line}: unknown group {label!r}")
+        value = _number("geminal.txt", line, r["value"])
+        out.append(GeminalPair(r["axial"], r["other"], value, r["source"], r["note"]))
+    return tuple(out)
+
+
 def citation(keys: tuple[str, ...] | str) -> str:
     """Full citation text for one or several source keys."""
     if isinstance(keys, str):
