@@ -6,7 +6,9 @@ Exit codes: 0 ok, 1 a check found a mismatch (later commands), 2 bad input or us
 from __future__ import annotations
 
 import argparse
+import io
 import json
+import os
 import sys
 from collections.abc import Sequence
 
@@ -65,6 +67,14 @@ def main(argv: Sequence[str] | None = None) -> int:
     except ChairdrawError as exc:
         print(f"chairdraw: {exc}", file=sys.stderr)
         return BAD_INPUT
+    except BrokenPipeError:
+        # the reader went away (`chairdraw demo | head -3`): stop quietly, and keep Python from
+        # complaining again when it flushes stdout at exit
+        try:
+            os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+        except (OSError, ValueError, io.UnsupportedOperation):
+            pass
+        return OK
 
 
 def _analyze(args, analyzer: Analyzer) -> int:

@@ -96,3 +96,23 @@ def test_no_ring_is_not_an_error(capsys):
     assert main(["analyze", "CCO", "--json"]) == 0
     data = json.loads(capsys.readouterr().out)
     assert data["rings"] == [] and "no ring that can take a chair" in data["notes"]
+
+
+def test_output_into_a_closed_pipe_is_quiet():
+    # `chairdraw demo --json | head -c 10`: the reader closes the pipe early; no traceback, exit 0.
+    # The JSON (about 160 kB) is larger than a pipe buffer, so the writer does meet the closed pipe
+    import subprocess
+    import sys
+
+    reader = subprocess.Popen(["head", "-c", "10"], stdin=subprocess.PIPE, stdout=subprocess.DEVNULL)
+    writer = subprocess.run(
+        [sys.executable, "-m", "chairdraw", "demo", "--json"],
+        stdout=reader.stdin,
+        stderr=subprocess.PIPE,
+        text=True,
+        timeout=120,
+    )
+    reader.stdin.close()
+    reader.wait(timeout=30)
+    assert "Traceback" not in writer.stderr, writer.stderr
+    assert writer.returncode == 0

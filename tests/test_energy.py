@@ -485,3 +485,25 @@ def test_memory_status_rows_are_warned(smiles):
     # science.md §4 marks the methyloxane (Eliel 1982) and methyl-1,3-dioxane (Eliel & Knoeber 1968) values [M]
     ring = only_ring(smiles)
     assert any("from memory" in w for w in ring.warnings), ring.warnings
+
+
+def test_aqueous_pair_values_are_marked_outside_water():
+    # Angyal's interaction values were measured in water (Encycl. Phys. Sci. Technol. 3rd ed., 2001,
+    # "Carbohydrates", Table V [C]); in an aprotic solvent the term says so, in protic it does not
+    beta_glucose = "OC[C@H]1O[C@@H](O)[C@H](O)[C@@H](O)[C@@H]1O"
+    for solvent, marked in (("aprotic", True), ("protic", False)):
+        ring = only_ring(beta_glucose, solvent=solvent)
+        gauche = [t for c in ring.chairs for t in c.terms if t.kind == "gauche" and t.sources == ("angyal",)]
+        assert gauche, solvent
+        assert all(("measured in water" in t.name) == marked for t in gauche), solvent
+
+
+def test_geminal_pair_term_in_json_validates():
+    import jsonschema
+
+    from chairdraw.schema import load
+
+    data = run("CC1(CCCCC1)c1ccccc1").to_dict()
+    jsonschema.validate(data, load())
+    kinds = {t["kind"] for c in data["rings"][0]["chairs"] for t in c["terms"]}
+    assert "geminal" in kinds
