@@ -20,7 +20,7 @@ from .molgraph import MolGraph
 from .read import Structure, read
 from .results import Analysis, Centre, Chair, Configuration, Position, RingResult
 from .rings import ChairRing, find_rings
-from .substituents import Group, fragments, hydrogen_isotope_fragment, recognise
+from .substituents import Group, hydrogen_isotope_fragment, recognise, substituent_groups
 
 SOLVENTS = ("aprotic", "protic")
 # MMFF94 comparison: 'auto' runs it where the tables fall short (a group estimated by class);
@@ -339,7 +339,7 @@ def relative_label(ring: ChairRing, slots: tuple[Slot, ...], sizes: dict[Key, in
 
 
 def _size(group: Group) -> int:
-    return sum(1 for ch in group.fragment if ch.isalpha() and ch.isupper())
+    return group.size
 
 
 def _key(slot: Slot) -> Key:
@@ -349,13 +349,13 @@ def _key(slot: Slot) -> Key:
 def _groups(mol: Chem.Mol, graph: MolGraph, slots: tuple[Slot, ...]) -> dict[Key, Group]:
     """The Group of every position that carries one (substituents, D/T, the H of a ring N-H)."""
     bonds = [(s.ring_atom, s.atom) for s in slots if s.atom is not None and s.is_group and s.element not in ("D", "T")]
-    smiles = fragments(mol, bonds, graph)  # type: ignore[arg-type]
+    found = substituent_groups(mol, graph, bonds)  # type: ignore[arg-type]
     out: dict[Key, Group] = {}
     for s in slots:
         if s.element in ("D", "T"):
             out[_key(s)] = recognise(hydrogen_isotope_fragment(s.element))
         elif s.is_group and s.atom is not None:
-            out[_key(s)] = recognise(smiles[(s.ring_atom, s.atom)])
+            out[_key(s)] = found[(s.ring_atom, s.atom)]
         elif s.element == "H" and s.inverting:
             out[_key(s)] = _N_H
     return out

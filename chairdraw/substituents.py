@@ -29,6 +29,7 @@ class Group:
     pair_class: str  # C, O, N, S, X, P, H ...
     rows: tuple[tables.AValue, ...]  # table rows for this group (several contexts)
     estimated_as: str | None = None  # class name when the value is borrowed
+    size: int = 1  # heavy atoms (ranks the groups of one ring atom in r/c/t labels)
 
     def avalue(self, solvent: str, context: str | None) -> tuple[float, tables.AValue, bool]:
         """(value, row, context_matched). Falls back to the cyclohexane row."""
@@ -98,13 +99,61 @@ def recognise(fragment: str) -> Group:
     mol = Chem.MolFromSmiles(fragment)
     attached = _attached_element(mol)
     pair_class = "X" if attached in HALOGENS else attached
+    size = sum(1 for a in mol.GetAtoms() if a.GetAtomicNum() > 1)
     if rows:
-        return Group(rows[0].label, fragment, pair_class, tuple(rows))
+        return Group(rows[0].label, fragment, pair_class, tuple(rows), size=size)
     for cls, patt in _compiled_classes():
         if mol.HasSubstructMatch(patt):
-            return Group(_formula_label(mol), fragment, cls.pair_class, _rows_by_label(cls.representative), cls.name)
-    placeholder = tables.AValue("?", fragment, 1.0, None, None, ("placeholder",), "no class matched")
-    return Group(_formula_label(mol), fragment, pair_class, (placeholder,), "unclassified")
+            rows_ = _rows_by_label(cls.representative)
+            return Group(_formula_label(mol), fragment, cls.pair_class, rows_, cls.name, size=size)
+    return Group(_formula_label(mol), fragment, pair_class, (_placeholder(fragment),), "unclassified", size=size)
+
+
+def _placeholder(fragment: str) -> tables.AValue:
+    return tables.AValue("?", fragment, 1.0, None, None, ("placeholder",), "no class matched")
+
+
+@cache
+def _largest_table_group() -> int:
+    """Heavy atoms of the largest group in the A-value table: a larger substituent cannot be in it."""
+    return max(sum(1 for a in Chem.MolFromSmiles(key).GetAtoms() if a.GetAtomicNum() > 1) for key in _table())
+
+
+@cache
+def _anchored_classes() -> tuple[tuple[tables.SubstituentClass, Chem.Mol], ...]:
+    # the classes' SMARTS as written: the leading '*' (any atom) matches the ring atom itself
+    return tuple((c, Chem.MolFromSmarts(c.smarts)) for c, _ in _compiled_classes())
+
+
+def _large_group(mol: Chem.Mol, graph: MolGraph, ring_atom: int, first: int, atoms: list[int]) -> Group:
+    """A substituent larger than any table group: its class is matched in place, on the molecule,
+    with the pattern's first atom held on the ring atom (cutting it off costs more than this)."""
+    attached = graph.symbol(first)
+    pair_class = "X" if attached in HALOGENS else attached
+    label = _hill(graph, atoms)
+    fragment = f"*{label}"  # not a SMILES: a name for a group that is only estimated
+    for cls, patt in _anchored_classes():
+        for match in mol.GetSubstructMatches(patt, uniquify=False, maxMatches=100000):
+            if match[0] == ring_atom and match[1] == first:
+                rows = _rows_by_label(cls.representative)
+                return Group(label, fragment, cls.pair_class, rows, cls.name, size=len(atoms))
+    return Group(label, fragment, pair_class, (_placeholder(fragment),), "unclassified", size=len(atoms))
+
+
+def _hill(graph: MolGraph, atoms: list[int]) -> str:
+    counts: dict[str, int] = {}
+    for a in atoms:
+        counts[graph.symbol(a)] = counts.get(graph.symbol(a), 0) + 1
+        counts["H"] = counts.get("H", 0) + graph.hydrogens(a)
+    return _hill_text(counts)
+
+
+def _hill_text(counts: dict[str, int]) -> str:
+    counts = {k: v for k, v in counts.items() if v}
+    order = (["C", "H"] if "C" in counts else []) + sorted(
+        k for k in counts if k not in ("C", "H") or "C" not in counts
+    )
+    return "".join(f"{el}{counts[el] if counts[el] > 1 else ''}" for el in order if el in counts)
 
 
 def _attached_element(mol: Chem.Mol) -> str:
@@ -123,10 +172,36 @@ def _formula_label(mol: Chem.Mol) -> str:
         counts[atom.GetSymbol()] = counts.get(atom.GetSymbol(), 0) + 1
         if atom.GetTotalNumHs():
             counts["H"] = counts.get("H", 0) + atom.GetTotalNumHs()
-    order = (["C", "H"] if "C" in counts else []) + sorted(
-        k for k in counts if k not in ("C", "H") or "C" not in counts
-    )
-    return "".join(f"{el}{counts[el] if counts[el] > 1 else ''}" for el in order)
+    return _hill_text(counts)
+
+
+def substituent_groups(mol: Chem.Mol, graph: MolGraph, bonds: list[tuple[int, int]]) -> dict[tuple[int, int], Group]:
+    """The Group of each (ring atom, attached atom) substituent."""
+    out: dict[tuple[int, int], Group] = {}
+    small = []
+    for r, s in bonds:
+        atoms = _substituent_atoms(graph, r, s, _largest_table_group() + 1)
+        if len(atoms) > _largest_table_group():
+            out[(r, s)] = _large_group(mol, graph, r, s, _substituent_atoms(graph, r, s, None))
+        else:
+            small.append((r, s))
+    for bond, fragment in fragments(mol, small, graph).items():
+        out[bond] = recognise(fragment)
+    return out
+
+
+def _substituent_atoms(graph: MolGraph, ring_atom: int, first: int, limit: int | None) -> list[int]:
+    """Heavy atoms of the substituent (breadth first, stopping after ``limit``)."""
+    seen = {ring_atom, first}
+    out = [first]
+    k = 0
+    while k < len(out) and (limit is None or len(out) < limit):
+        for j in graph.neighbours[out[k]]:
+            if j not in seen and graph.z[j] > 1:
+                seen.add(j)
+                out.append(j)
+        k += 1
+    return out if limit is None else out[:limit]
 
 
 def fragments(
@@ -134,14 +209,15 @@ def fragments(
 ) -> dict[tuple[int, int], str]:
     """Canonical fragment SMILES for each (ring atom, attached atom) bond.
 
-    Most substituents are small trees (OH, OAc, CH2OH, iPr): for those a rooted-tree code, which
-    is the same for two trees exactly when they are the same group, is written as SMILES and made
-    canonical once per distinct code. Substituents with a ring of their own are cut off with RDKit."""
+    The substituent is written as SMILES from the graph: an acyclic one as a rooted-tree code
+    (branches sorted by their own code, so that it is the same for two trees exactly when they
+    are the same group), one with rings in depth-first order; either text is made canonical by
+    RDKit once per distinct text. Substituents with unusual bonds are cut off with RDKit."""
     graph = graph or MolGraph(mol)
     out: dict[tuple[int, int], str] = {}
     rest = []
     for r, s in bonds:
-        code = _tree_code(graph, r, s)
+        code = _tree_code(graph, r, s) or _ring_code(graph, r, s)
         if code is None:
             rest.append((r, s))
         else:
@@ -152,14 +228,24 @@ def fragments(
 
 
 _BOND_SYMBOL = {1.0: "", 2.0: "=", 3.0: "#"}
+_RING_BOND_SYMBOL = {1.0: "-", 1.5: ":", 2.0: "=", 3.0: "#"}
 _TREE_LIMIT = 40  # atoms; a larger substituent is cut off with RDKit instead
 
 
+def _atom_text(graph: MolGraph, idx: int, hydrogens: int) -> str:
+    charge = graph.charge(idx)
+    sign = "" if charge == 0 else (f"+{charge}" if charge > 0 else f"-{-charge}")
+    symbol = graph.symbol(idx)
+    if idx in graph.ring_atoms and any(graph.order[(idx, j)] == 1.5 for j in graph.neighbours[idx]):
+        symbol = symbol.lower()
+    return f"[{symbol}H{hydrogens}{sign}]"
+
+
 def _tree_code(graph: MolGraph, root: int, first: int) -> str | None:
-    """'*' + SMILES of the substituent whose branches are sorted by their own code; None when the
-    substituent has a ring, an unusual bond, or more than _TREE_LIMIT atoms. Hydrogens (also
-    drawn ones, and isotopes of H) become H counts; isotopes and stereo inside the group are
-    ignored, as in the A-value table."""
+    """'*' + SMILES of an acyclic substituent whose branches are sorted by their own code; None
+    when it has a ring, an unusual bond, or more than _TREE_LIMIT atoms. Hydrogens (also drawn
+    ones, and isotopes of H) become H counts; isotopes and stereo inside the group are ignored,
+    as in the A-value table."""
     budget = [_TREE_LIMIT]
 
     def code(idx: int, parent: int) -> str | None:
@@ -179,16 +265,77 @@ def _tree_code(graph: MolGraph, root: int, first: int) -> str | None:
             if symbol is None or below is None:
                 return None
             branches.append(symbol + below)
-        charge = graph.charge(idx)
-        sign = "" if charge == 0 else (f"+{charge}" if charge > 0 else f"-{-charge}")
-        head = f"[{graph.symbol(idx)}H{hydrogens}{sign}]"
-        return head + "".join(f"({b})" for b in sorted(branches))
+        return _atom_text(graph, idx, hydrogens) + "".join(f"({b})" for b in sorted(branches))
 
     symbol = _BOND_SYMBOL.get(graph.order[(root, first)])
     if symbol is None or graph.z[first] <= 1:
         return None
     body = code(first, root)
     return None if body is None else "*" + symbol + body
+
+
+def _ring_code(graph: MolGraph, root: int, first: int) -> str | None:
+    """'*' + a (not canonical) SMILES of a substituent with rings, written depth first with
+    explicit bonds and ring-closure digits; None for unusual bonds or more than _TREE_LIMIT atoms."""
+    symbol = _RING_BOND_SYMBOL.get(graph.order[(root, first)])
+    if symbol is None or graph.z[first] <= 1:
+        return None
+    children: dict[int, list[int]] = {}
+    closures: set[frozenset[int]] = set()
+
+    def visit(idx: int, parent: int) -> bool:
+        children[idx] = []
+        if len(children) > _TREE_LIMIT:
+            return False
+        for j in graph.neighbours[idx]:
+            if j in (parent, root) or graph.z[j] <= 1:
+                continue
+            if j in children:
+                closures.add(frozenset((idx, j)))  # in an undirected depth-first walk: a ring bond
+            else:
+                children[idx].append(j)
+                if not visit(j, idx):
+                    return False
+        return True
+
+    if not visit(first, root):
+        return None
+    open_digits: dict[frozenset[int], int] = {}
+    free = list(range(1, 100))
+
+    def write(idx: int) -> str | None:
+        hydrogens = graph.hydrogens(idx) + sum(1 for j in graph.neighbours[idx] if graph.z[j] == 1)
+        text = _atom_text(graph, idx, hydrogens)
+        for j in graph.neighbours[idx]:
+            bond = frozenset((idx, j))
+            if bond not in closures:
+                continue
+            if bond in open_digits:
+                number = open_digits.pop(bond)
+                text += _digit(number)
+                free.append(number)
+            else:
+                bond_symbol = _RING_BOND_SYMBOL.get(graph.order[(idx, j)])
+                if bond_symbol is None:
+                    return None
+                number = free.pop(0)
+                open_digits[bond] = number
+                text += bond_symbol + _digit(number)
+        parts = []
+        for child in children[idx]:
+            bond_symbol = _RING_BOND_SYMBOL.get(graph.order[(idx, child)])
+            below = None if bond_symbol is None else write(child)
+            if bond_symbol is None or below is None:
+                return None
+            parts.append(bond_symbol + below)
+        return text + "".join(f"({p})" for p in parts)
+
+    body = write(first)
+    return None if body is None else "*" + symbol + body
+
+
+def _digit(number: int) -> str:
+    return str(number) if number < 10 else f"%{number}"
 
 
 def _cut_fragments(mol: Chem.Mol, bonds: list[tuple[int, int]]) -> dict[tuple[int, int], str]:

@@ -86,3 +86,27 @@ def test_isotopes_inside_a_group_are_ignored():
     mol = Chem.MolFromSmiles("[2H]C([2H])([2H])OC1CCCCC1")
     (bonds,) = ring_bonds(mol)
     assert recognise(fragments(mol, bonds)[bonds[0]]).label == "OMe"
+
+
+def test_large_groups_classified_in_place_as_when_cut_off():
+    # a substituent larger than every table group is classified on the molecule itself; the class,
+    # the pair class and the formula label must equal those of the same group cut off with RDKit
+    from chairdraw.substituents import _largest_table_group, substituent_groups
+
+    checked = 0
+    for mol in nci_molecules(400):
+        graph = MolGraph(mol)
+        for bonds in ring_bonds(mol):
+            ours = substituent_groups(mol, graph, bonds)
+            cut = _cut_fragments(mol, bonds)
+            for bond in bonds:
+                reference = recognise(cut[bond])
+                group = ours[bond]
+                assert (group.estimated_as, group.pair_class, group.label, group.size) == (
+                    reference.estimated_as,
+                    reference.pair_class,
+                    reference.label,
+                    reference.size,
+                ), (Chem.MolToSmiles(mol), bond)
+                checked += group.size > _largest_table_group()
+    assert checked > 20  # the sample has many large substituents
