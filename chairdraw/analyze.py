@@ -10,15 +10,16 @@ from __future__ import annotations
 
 from rdkit import Chem
 
-from .chairs import AXIAL, EQUATORIAL, chair_name, inverting_choices, points_up
+from .chairs import AXIAL
 from .configurations import enumerate_faces, faces_of
-from .energy import equilibrium, forcefield, tables
-from .energy.terms import NO_POSITION_VALUE, ChairModel, Key
+from .conformers import ChairPair, position_key
+from .energy import forcefield, tables
+from .energy.terms import ChairModel, Key
 from .errors import EnergyError, StereoError, UsageError
-from .faces import BOTTOM, CCW, TOP, Slot, ring_slots
+from .faces import CCW, TOP, Slot, ring_slots
 from .molgraph import MolGraph
 from .read import Structure, read
-from .results import Analysis, Centre, Chair, Configuration, Position, RingResult
+from .results import Analysis, Centre, Configuration, RingResult
 from .rings import ChairRing, find_rings
 from .substituents import Group, hydrogen_isotope_fragment, recognise, substituent_groups
 
@@ -28,7 +29,6 @@ SOLVENTS = ("aprotic", "protic")
 FORCEFIELD_MODES = ("auto", "always", "never")
 FORCEFIELD_DISAGREES_KCAL = 0.5
 MAX_OPEN_CENTRES = 8
-TWIST_WARNING_KCAL = 4.5  # about A(tBu): axial t-Bu-cyclohexane and its twist-boat are close (Wiberg 1999)
 _N_H = Group("H", "*[H]", "H", tuple(r for r in tables.avalues() if r.label == "H"))
 _STATUS = {
     Chem.StereoSpecified.Specified: "specified",
@@ -83,7 +83,7 @@ class Analyzer:
     def _ring(self, mol: Chem.Mol, graph: MolGraph, ring: ChairRing, status: dict[int, str]) -> list[RingResult]:
         base_slots = ring_slots(mol, ring)
         groups = _groups(mol, graph, base_slots)
-        model = ChairModel(ring, groups, self.solvent, {_key(s): s.ring_index for s in base_slots if _key(s) in groups})
+        model = ChairModel(ring, groups, self.solvent, {position_key(s): s.ring_index for s in base_slots if position_key(s) in groups})
         return [
             self._with_forcefield(m, ring, r)
             for m, r in self._configurations(mol, ring, status, base_slots, groups, model)
@@ -116,7 +116,7 @@ class Analyzer:
         centres = [a for a in ring.atoms if a in status]
         open_ = [a for a in centres if status[a] != "specified"]
         loc = dict(zip(ring.atoms, ring.locants))
-        chairs = _ChairBuilder(ring, model, self.temperature, base_slots)
+        chairs = ChairPair(ring, model, self.temperature, base_slots)
         if not open_:
             stereo = tuple(Centre(a, loc[a], "specified") for a in centres)
             return [(mol, chairs.build(base_slots, stereo))]
@@ -145,118 +145,6 @@ class Analyzer:
             )
             out.append((config, chairs.build(slots, stereo, config, notes=(note,))))
         return out
-
-
-class _ChairBuilder:
-    """Both chairs of one ring for a face assignment, with the ring's energy model.
-
-    Slots come in the same order for every configuration of a ring (only faces change), so
-    positions are made once per (slot, face, orientation) and reused."""
-
-    def __init__(self, ring: ChairRing, model: ChairModel, temperature: float, slots: tuple[Slot, ...]):
-        self.ring = ring
-        self.model = model
-        self.temperature = temperature
-        number = {e.key: n for n, e in enumerate(model.entries)}
-        self.entry_at = [number.get(_key(s)) for s in slots]
-        self.labels = {e.key: (e.group.label, bool(e.group.estimated_as)) for e in model.entries}
-        self.ring_warnings = model.ring_warnings()
-        self.names = (chair_name(ring, 0), chair_name(ring, 1))
-        self.up = tuple(tuple(points_up(chair, k) for k in range(6)) for chair in (0, 1))
-        self.up_atoms = tuple(tuple(a for k, a in enumerate(ring.atoms) if self.up[chair][k]) for chair in (0, 1))
-        # one dict per way of putting the inverting ring atoms' positions axial: ring index -> slot number
-        self.choices = [
-            {i: slots.index(s) for i, s in choice.items()} for choice in inverting_choices(slots)
-        ]
-        self._positions: dict[tuple[int, bool, bool], Position] = {}
-
-    def build(self, slots, stereo, config: Configuration | None = None, notes: tuple[str, ...] = ()) -> RingResult:
-        ring, model = self.ring, self.model
-        built = []
-        warnings: list[str] = []
-        for chair in (0, 1):
-            up = self.up[chair]
-            best = None
-            for choice in self.choices:
-                axial = [False] * len(model.entries)
-                positions = []
-                for j, s in enumerate(slots):
-                    if s.face is not None:
-                        top = s.face == TOP
-                        ax = top == up[s.ring_index]
-                    else:
-                        ax = choice[s.ring_index] == j
-                        top = ax == up[s.ring_index]
-                    n = self.entry_at[j]
-                    if n is not None:
-                        axial[n] = ax
-                    positions.append(self._positions.get((j, top, ax)) or self._position(j, s, top, ax))
-                energy, terms, warn = model.evaluate(axial)
-                if best is None or energy < best[0] - 1e-9:
-                    best = (energy, positions, terms, warn)
-            assert best is not None
-            built.append(best)
-            warnings.extend(w for w in best[3] if w not in warnings)
-        energies = [b[0] for b in built]
-        pops = equilibrium.populations(energies, self.temperature)
-        low = min(energies)
-        degenerate = abs(energies[0] - energies[1]) < equilibrium.DEGENERATE_KCAL
-        chairs = [
-            Chair(
-                name=self.names[chair],
-                up_atoms=self.up_atoms[chair],
-                energy_kcal_mol=energy - low,
-                population=pops[chair],
-                favored=(not degenerate) and energy == low,
-                terms=tuple(terms),
-                positions=tuple(positions),
-            )
-            for chair, (energy, positions, terms, _) in enumerate(built)
-        ]
-        warnings = self.ring_warnings + _merge_position_warnings(warnings)
-        if low >= TWIST_WARNING_KCAL:
-            warnings.append(
-                f"both chairs carry at least {low:.1f} kcal/mol of strain: a twist-boat probably competes "
-                "(axial t-Bu-cyclohexane and its twist-boat are about equal, Wiberg 1999); the chair model does not cover it"
-            )
-        if ring.trigonal:
-            warnings.append(
-                "trigonal ring atom at "
-                + ", ".join(ring.locants[k] for k in ring.trigonal)
-                + ": cyclohexane A-values are used beside it (alkyl-ketone effects are not modelled)"
-            )
-        return RingResult(
-            atoms=ring.atoms,
-            locants=ring.locants,
-            kind=ring.kind,
-            chairs=(chairs[0], chairs[1]),
-            delta_g_kcal_mol=abs(energies[0] - energies[1]),
-            degenerate=degenerate,
-            stereo=stereo,
-            configuration=config,
-            trigonal_atoms=tuple(ring.atoms[k] for k in ring.trigonal),
-            warnings=tuple(warnings),
-            notes=notes,
-        )
-
-    def _position(self, j: int, s: Slot, top: bool, axial: bool) -> Position:
-        label, estimated = self.labels.get(_key(s), (s.element, False))
-        if s.element == "LP":
-            label = "lone pair"
-        elif s.element == "H":
-            label, estimated = "H", False
-        found = Position(
-            ring_atom=s.ring_atom,
-            locant=self.ring.locants[s.ring_index],
-            atom=s.atom,
-            label=label,
-            face=TOP if top else BOTTOM,
-            orientation=AXIAL if axial else EQUATORIAL,
-            inverting=s.inverting,
-            estimated=estimated,
-        )
-        self._positions[(j, top, axial)] = found
-        return found
 
 
 def analyze(
@@ -301,19 +189,6 @@ def _words(status: dict[int, str], atoms: list[int]) -> str:
     return " or ".join(kinds)
 
 
-def _merge_position_warnings(warnings: list[str]) -> list[str]:
-    """One line for all groups that got the cyclohexane value in a heterocycle."""
-    where = [w[len(NO_POSITION_VALUE) :] for w in warnings if w.startswith(NO_POSITION_VALUE)]
-    rest = [w for w in warnings if not w.startswith(NO_POSITION_VALUE)]
-    if where:
-        rest.insert(
-            0,
-            "ring-position A-values are tabulated only for methyl in oxanes, 1,3-dioxanes and piperidines; "
-            "cyclohexane values are used for " + ", ".join(where),
-        )
-    return rest
-
-
 def relative_label(ring: ChairRing, slots: tuple[Slot, ...], sizes: dict[Key, int], centres: list[int]) -> str:
     """r/c/t descriptor of the ring's stereocentres, e.g. 'r-1,c-4 (cis)'; ``sizes`` ranks the
     groups of one ring atom (the largest is the reference group there)."""
@@ -323,7 +198,7 @@ def relative_label(ring: ChairRing, slots: tuple[Slot, ...], sizes: dict[Key, in
         here = [s for s in slots if s.ring_index == i and s.is_group and s.face is not None]
         if not here:
             continue
-        here.sort(key=lambda s: (-sizes.get(_key(s), 0), s.atom or 0))
+        here.sort(key=lambda s: (-sizes.get(position_key(s), 0), s.atom or 0))
         principal.append((i, here[0]))
     if not principal:
         return "unlabelled"
@@ -342,10 +217,6 @@ def _size(group: Group) -> int:
     return group.size
 
 
-def _key(slot: Slot) -> Key:
-    return (slot.ring_atom, slot.atom, slot.element)
-
-
 def _groups(mol: Chem.Mol, graph: MolGraph, slots: tuple[Slot, ...]) -> dict[Key, Group]:
     """The Group of every position that carries one (substituents, D/T, the H of a ring N-H)."""
     bonds = [(s.ring_atom, s.atom) for s in slots if s.atom is not None and s.is_group and s.element not in ("D", "T")]
@@ -353,11 +224,11 @@ def _groups(mol: Chem.Mol, graph: MolGraph, slots: tuple[Slot, ...]) -> dict[Key
     out: dict[Key, Group] = {}
     for s in slots:
         if s.element in ("D", "T"):
-            out[_key(s)] = recognise(hydrogen_isotope_fragment(s.element))
+            out[position_key(s)] = recognise(hydrogen_isotope_fragment(s.element))
         elif s.is_group and s.atom is not None:
-            out[_key(s)] = found[(s.ring_atom, s.atom)]
+            out[position_key(s)] = found[(s.ring_atom, s.atom)]
         elif s.element == "H" and s.inverting:
-            out[_key(s)] = _N_H
+            out[position_key(s)] = _N_H
     return out
 
 

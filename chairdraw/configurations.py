@@ -66,8 +66,11 @@ def _pattern(slots: tuple[Slot, ...], principal_atoms: dict[int, int | None]) ->
     )
 
 
+_FLIPPED = {TOP: BOTTOM, BOTTOM: TOP}
+
+
 def _flip(face: str) -> str:
-    return {TOP: BOTTOM, BOTTOM: TOP}.get(face, face)
+    return _FLIPPED.get(face, face)
 
 
 def _canonical(pattern: Pattern, symmetries, mirror_ok: bool) -> Pattern:
@@ -92,16 +95,17 @@ def enumerate_faces(
     open_index = [ring.atoms.index(a) for a in open_atoms]
     # each slot and its face-flipped twin, made once
     twins = [(s, replace(s, face=_flip(s.face)) if s.face is not None and s.ring_index in open_index else s) for s in slots]
+    base = _pattern(slots, principal)
     seen: set[Pattern] = set()
     out = []
     for flips in itertools.product((False, True), repeat=len(open_index)):
         flipped = {i for i, f in zip(open_index, flips) if f}
-        candidate = tuple(twin if s.ring_index in flipped else s for s, twin in twins)
-        key = _canonical(_pattern(candidate, principal), symmetries, mirror_ok)
+        pattern = tuple(_flip(face) if i in flipped else face for i, face in enumerate(base))
+        key = _canonical(pattern, symmetries, mirror_ok)
         if key in seen:
             continue
         seen.add(key)
-        out.append(candidate)
+        out.append(tuple(twin if s.ring_index in flipped else s for s, twin in twins))
     return out
 
 
