@@ -83,7 +83,7 @@ class Analyzer:
     def _ring(self, mol: Chem.Mol, graph: MolGraph, ring: ChairRing, status: dict[int, str]) -> list[RingResult]:
         base_slots = ring_slots(mol, ring)
         groups = _groups(mol, graph, base_slots)
-        model = ChairModel(ring, groups, self.solvent, {position_key(s): s.ring_index for s in base_slots if position_key(s) in groups})
+        model = ChairModel(ring, groups, self.solvent)
         return [
             self._with_forcefield(m, ring, r)
             for m, r in self._configurations(mol, ring, status, base_slots, groups, model)
@@ -134,7 +134,7 @@ class Analyzer:
         stereo = tuple(
             Centre(a, loc[a], "specified" if status[a] == "specified" else f"{status[a]}, assumed") for a in centres
         )
-        sizes = {k: _size(g) for k, g in groups.items()}
+        sizes = {k: g.size for k, g in groups.items()}
         out: list[tuple[Chem.Mol | Configuration, RingResult]] = []
         for slots in enumerate_faces(mol, ring, base_slots, open_, mirror_ok=not others):
             label = relative_label(ring, slots, sizes, centres)
@@ -211,10 +211,6 @@ def relative_label(ring: ChairRing, slots: tuple[Slot, ...], sizes: dict[Key, in
     if len(principal) == 2:
         label += " (cis)" if parts[1].startswith("c") else " (trans)"
     return label
-
-
-def _size(group: Group) -> int:
-    return group.size
 
 
 def _groups(mol: Chem.Mol, graph: MolGraph, slots: tuple[Slot, ...]) -> dict[Key, Group]:

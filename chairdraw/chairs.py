@@ -32,10 +32,20 @@ def points_up(chair: int, ring_index: int) -> bool:
     return (ring_index % 2 == 0) == (chair == 0)
 
 
+def axial_and_top(chair: int, slot: Slot, chosen_axial: bool = False) -> tuple[bool, bool]:
+    """(axial, on the top face) of a position in ``chair``. A fixed face is axial where its atom
+    points that way; an inverting position's face follows from whether it was chosen axial."""
+    up = points_up(chair, slot.ring_index)
+    if slot.face is not None:
+        top = slot.face == TOP
+        return top == up, top
+    return chosen_axial, chosen_axial == up
+
+
 def orientation(chair: int, slot: Slot) -> str:
     if slot.face is None:
         raise ValueError("an inverting position has no fixed orientation; use place()")
-    return AXIAL if (slot.face == TOP) == points_up(chair, slot.ring_index) else EQUATORIAL
+    return AXIAL if axial_and_top(chair, slot)[0] else EQUATORIAL
 
 
 def place(chair: int, slots: tuple[Slot, ...], axial_choice: Mapping[int, Slot] | None = None) -> tuple[Placement, ...]:
@@ -43,16 +53,12 @@ def place(chair: int, slots: tuple[Slot, ...], axial_choice: Mapping[int, Slot] 
     the slot that is axial (by ring index); by default the lone pair (or H) is axial."""
     out = []
     for slot in slots:
-        if slot.face is not None:
-            out.append(Placement(slot, orientation(chair, slot), slot.face))
-            continue
-        chosen = (axial_choice or {}).get(slot.ring_index)
-        if chosen is None:
-            chosen = _default_axial(slots, slot.ring_index)
-        axial = chosen == slot
-        up = points_up(chair, slot.ring_index)
-        face = TOP if axial == up else BOTTOM
-        out.append(Placement(slot, AXIAL if axial else EQUATORIAL, face))
+        chosen = False
+        if slot.face is None:
+            pick = (axial_choice or {}).get(slot.ring_index) or _default_axial(slots, slot.ring_index)
+            chosen = pick == slot
+        axial, top = axial_and_top(chair, slot, chosen)
+        out.append(Placement(slot, AXIAL if axial else EQUATORIAL, TOP if top else BOTTOM))
     return tuple(out)
 
 

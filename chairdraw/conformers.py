@@ -7,7 +7,7 @@ order for every configuration (only faces change), so positions are made once pe
 
 from __future__ import annotations
 
-from .chairs import AXIAL, EQUATORIAL, chair_name, inverting_choices, points_up
+from .chairs import AXIAL, EQUATORIAL, axial_and_top, chair_name, inverting_choices, points_up
 from .energy import equilibrium
 from .energy.terms import NO_POSITION_VALUE, ChairModel, Key
 from .faces import BOTTOM, TOP, Slot
@@ -37,18 +37,14 @@ class ChairPair:
         self.labels = {e.key: (e.group.label, bool(e.group.estimated_as)) for e in model.entries}
         self.ring_warnings = model.ring_warnings()
         self.names = (chair_name(ring, 0), chair_name(ring, 1))
-        self.up = tuple(tuple(points_up(chair, k) for k in range(6)) for chair in (0, 1))
-        self.up_atoms = tuple(tuple(a for k, a in enumerate(ring.atoms) if self.up[chair][k]) for chair in (0, 1))
+        self.up_atoms = tuple(tuple(a for k, a in enumerate(ring.atoms) if points_up(chair, k)) for chair in (0, 1))
         # one dict per way of putting the inverting ring atoms' positions axial: ring index -> slot number
-        self.choices = [
-            {i: slots.index(s) for i, s in choice.items()} for choice in inverting_choices(slots)
-        ]
+        self.choices = [{i: slots.index(s) for i, s in choice.items()} for choice in inverting_choices(slots)]
         self._positions: dict[tuple[int, bool, bool], Position] = {}
-        self.fixed = all(s.face is not None for s in slots)
 
     def build(self, slots, stereo, config: Configuration | None = None, notes: tuple[str, ...] = ()) -> RingResult:
         ring = self.ring
-        built = self._both_fixed(slots) if self.fixed else self._both_inverting(slots)
+        built = self._both(slots)
         warnings: list[str] = []
         for b in built:
             warnings.extend(w for w in b[3] if w not in warnings)
@@ -94,23 +90,17 @@ class ChairPair:
             notes=notes,
         )
 
-    def _both_inverting(self, slots) -> list[tuple[float, list[Position], list, list[str]]]:
-        """Both chairs with inverting ring nitrogens: in each chair, the better of the ways of
-        putting one position of each such nitrogen axial."""
+    def _both(self, slots) -> list[tuple[float, list[Position], list, list[str]]]:
+        """Each chair's (energy, positions, terms, warnings); with inverting ring nitrogens, the
+        better of the ways of putting one position of each such nitrogen axial."""
         built = []
         for chair in (0, 1):
-            up = self.up[chair]
             best = None
             for choice in self.choices:
                 axial = [False] * len(self.model.entries)
                 positions = []
                 for j, s in enumerate(slots):
-                    if s.face is not None:
-                        top = s.face == TOP
-                        ax = top == up[s.ring_index]
-                    else:
-                        ax = choice[s.ring_index] == j
-                        top = ax == up[s.ring_index]
+                    ax, top = axial_and_top(chair, s, choice.get(s.ring_index) == j)
                     n = self.entry_at[j]
                     if n is not None:
                         axial[n] = ax
@@ -121,31 +111,6 @@ class ChairPair:
             assert best is not None
             built.append(best)
         return built
-
-    def _both_fixed(self, slots) -> list[tuple[float, list[Position], list, list[str]]]:
-        """Both chairs when every position has a fixed face (no inverting ring nitrogen): one pass,
-        since a position axial in one chair is equatorial in the other."""
-        n_entries = len(self.model.entries)
-        axial0 = [False] * n_entries
-        axial1 = [False] * n_entries
-        first: list[Position] = []
-        second: list[Position] = []
-        up0 = self.up[0]
-        cache = self._positions
-        for j, s in enumerate(slots):
-            top = s.face == TOP
-            ax = top == up0[s.ring_index]
-            n = self.entry_at[j]
-            if n is not None:
-                axial0[n] = ax
-                axial1[n] = not ax
-            first.append(cache.get((j, top, ax)) or self._position(j, s, top, ax))
-            second.append(cache.get((j, top, not ax)) or self._position(j, s, top, not ax))
-        out = []
-        for positions, axial in ((first, axial0), (second, axial1)):
-            energy, terms, warn = self.model.evaluate(axial)
-            out.append((energy, positions, terms, warn))
-        return out
 
     def _position(self, j: int, s: Slot, top: bool, axial: bool) -> Position:
         label, estimated = self.labels.get(position_key(s), (s.element, False))
@@ -165,7 +130,6 @@ class ChairPair:
         )
         self._positions[(j, top, axial)] = found
         return found
-
 
 
 def _merge_position_warnings(warnings: list[str]) -> list[str]:

@@ -261,8 +261,6 @@ def _lowest_locants(orders: list[tuple[int, ...]], facts: dict[int, _Facts]) -> 
             order,
         )
 
-    if not any(any(v) for v in flags.values()):
-        return min(orders)
     return min(orders, key=key)
 
 

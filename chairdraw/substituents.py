@@ -180,9 +180,9 @@ def substituent_groups(mol: Chem.Mol, graph: MolGraph, bonds: list[tuple[int, in
     out: dict[tuple[int, int], Group] = {}
     small = []
     for r, s in bonds:
-        atoms = _substituent_atoms(graph, r, s, _largest_table_group() + 1)
+        atoms = _substituent_atoms(graph, r, s)
         if len(atoms) > _largest_table_group():
-            out[(r, s)] = _large_group(mol, graph, r, s, _substituent_atoms(graph, r, s, None))
+            out[(r, s)] = _large_group(mol, graph, r, s, atoms)
         else:
             small.append((r, s))
     for bond, fragment in fragments(mol, small, graph).items():
@@ -190,18 +190,16 @@ def substituent_groups(mol: Chem.Mol, graph: MolGraph, bonds: list[tuple[int, in
     return out
 
 
-def _substituent_atoms(graph: MolGraph, ring_atom: int, first: int, limit: int | None) -> list[int]:
-    """Heavy atoms of the substituent (breadth first, stopping after ``limit``)."""
+def _substituent_atoms(graph: MolGraph, ring_atom: int, first: int) -> list[int]:
+    """Heavy atoms of the substituent, breadth first."""
     seen = {ring_atom, first}
     out = [first]
-    k = 0
-    while k < len(out) and (limit is None or len(out) < limit):
-        for j in graph.neighbours[out[k]]:
+    for idx in out:  # the list grows while it is walked
+        for j in graph.neighbours[idx]:
             if j not in seen and graph.z[j] > 1:
                 seen.add(j)
                 out.append(j)
-        k += 1
-    return out if limit is None else out[:limit]
+    return out
 
 
 def fragments(
@@ -209,30 +207,30 @@ def fragments(
 ) -> dict[tuple[int, int], str]:
     """Canonical fragment SMILES for each (ring atom, attached atom) bond.
 
-    The substituent is written as SMILES from the graph: an acyclic one as a rooted-tree code
-    (branches sorted by their own code, so that it is the same for two trees exactly when they
-    are the same group), one with rings in depth-first order; either text is made canonical by
-    RDKit once per distinct text. Substituents with unusual bonds are cut off with RDKit."""
+    The substituent is written as SMILES from the graph (``_fragment_text``) and that text is
+    made canonical by RDKit once per distinct text. Substituents with unusual bonds are cut off
+    with RDKit."""
     graph = graph or MolGraph(mol)
     out: dict[tuple[int, int], str] = {}
     rest = []
     for r, s in bonds:
-        code = _tree_code(graph, r, s) or _ring_code(graph, r, s)
-        if code is None:
+        text = _fragment_text(graph, r, s)
+        if text is None:
             rest.append((r, s))
         else:
-            out[(r, s)] = _canonical_piece(code)
+            out[(r, s)] = _canonical_piece(text)
     if rest:
         out.update(_cut_fragments(mol, rest))
     return out
 
 
-_BOND_SYMBOL = {1.0: "", 2.0: "=", 3.0: "#"}
-_RING_BOND_SYMBOL = {1.0: "-", 1.5: ":", 2.0: "=", 3.0: "#"}
-_TREE_LIMIT = 40  # atoms; a larger substituent is cut off with RDKit instead
+_BOND_SYMBOL = {1.0: "-", 1.5: ":", 2.0: "=", 3.0: "#"}
 
 
-def _atom_text(graph: MolGraph, idx: int, hydrogens: int) -> str:
+def _atom_text(graph: MolGraph, idx: int) -> str:
+    """A bracket atom with every hydrogen counted (also hydrogens drawn as atoms, and isotopes of
+    H: isotopes and stereo inside a group are ignored, as in the A-value table)."""
+    hydrogens = graph.hydrogens(idx) + sum(1 for j in graph.neighbours[idx] if graph.z[j] == 1)
     charge = graph.charge(idx)
     sign = "" if charge == 0 else (f"+{charge}" if charge > 0 else f"-{-charge}")
     symbol = graph.symbol(idx)
@@ -241,52 +239,18 @@ def _atom_text(graph: MolGraph, idx: int, hydrogens: int) -> str:
     return f"[{symbol}H{hydrogens}{sign}]"
 
 
-def _tree_code(graph: MolGraph, root: int, first: int) -> str | None:
-    """'*' + SMILES of an acyclic substituent whose branches are sorted by their own code; None
-    when it has a ring, an unusual bond, or more than _TREE_LIMIT atoms. Hydrogens (also drawn
-    ones, and isotopes of H) become H counts; isotopes and stereo inside the group are ignored,
-    as in the A-value table."""
-    budget = [_TREE_LIMIT]
-
-    def code(idx: int, parent: int) -> str | None:
-        budget[0] -= 1
-        if budget[0] < 0 or idx in graph.ring_atoms:
-            return None
-        hydrogens = graph.hydrogens(idx)
-        branches = []
-        for other in graph.neighbours[idx]:
-            if other == parent:
-                continue
-            if graph.z[other] == 1:
-                hydrogens += 1
-                continue
-            symbol = _BOND_SYMBOL.get(graph.order[(idx, other)])
-            below = None if symbol is None else code(other, idx)
-            if symbol is None or below is None:
-                return None
-            branches.append(symbol + below)
-        return _atom_text(graph, idx, hydrogens) + "".join(f"({b})" for b in sorted(branches))
-
-    symbol = _BOND_SYMBOL.get(graph.order[(root, first)])
-    if symbol is None or graph.z[first] <= 1:
-        return None
-    body = code(first, root)
-    return None if body is None else "*" + symbol + body
-
-
-def _ring_code(graph: MolGraph, root: int, first: int) -> str | None:
-    """'*' + a (not canonical) SMILES of a substituent with rings, written depth first with
-    explicit bonds and ring-closure digits; None for unusual bonds or more than _TREE_LIMIT atoms."""
-    symbol = _RING_BOND_SYMBOL.get(graph.order[(root, first)])
-    if symbol is None or graph.z[first] <= 1:
+def _fragment_text(graph: MolGraph, root: int, first: int) -> str | None:
+    """'*' + SMILES of the substituent, written depth first with explicit bonds and ring-closure
+    digits; None for a bond RDKit's SMILES could not carry (dative, zero-order). In an acyclic
+    group the branches are sorted by their own text, so that the text is the same for two groups
+    exactly when they are the same group (fewer texts for RDKit to make canonical)."""
+    if graph.z[first] <= 1 or graph.order[(root, first)] not in _BOND_SYMBOL:
         return None
     children: dict[int, list[int]] = {}
     closures: set[frozenset[int]] = set()
 
-    def visit(idx: int, parent: int) -> bool:
+    def visit(idx: int, parent: int) -> None:
         children[idx] = []
-        if len(children) > _TREE_LIMIT:
-            return False
         for j in graph.neighbours[idx]:
             if j in (parent, root) or graph.z[j] <= 1:
                 continue
@@ -294,44 +258,41 @@ def _ring_code(graph: MolGraph, root: int, first: int) -> str | None:
                 closures.add(frozenset((idx, j)))  # in an undirected depth-first walk: a ring bond
             else:
                 children[idx].append(j)
-                if not visit(j, idx):
-                    return False
-        return True
+                visit(j, idx)
 
-    if not visit(first, root):
-        return None
+    visit(first, root)
     open_digits: dict[frozenset[int], int] = {}
     free = list(range(1, 100))
 
-    def write(idx: int) -> str | None:
-        hydrogens = graph.hydrogens(idx) + sum(1 for j in graph.neighbours[idx] if graph.z[j] == 1)
-        text = _atom_text(graph, idx, hydrogens)
+    def write(idx: int, parent: int) -> str | None:
+        bond = _BOND_SYMBOL.get(graph.order[(parent, idx)])
+        if bond is None:
+            return None
+        text = bond + _atom_text(graph, idx)
         for j in graph.neighbours[idx]:
-            bond = frozenset((idx, j))
-            if bond not in closures:
+            pair = frozenset((idx, j))
+            if pair not in closures:
                 continue
-            if bond in open_digits:
-                number = open_digits.pop(bond)
+            if pair in open_digits:
+                number = open_digits.pop(pair)
                 text += _digit(number)
                 free.append(number)
             else:
-                bond_symbol = _RING_BOND_SYMBOL.get(graph.order[(idx, j)])
-                if bond_symbol is None:
+                closing = _BOND_SYMBOL.get(graph.order[(idx, j)])
+                if closing is None:
                     return None
                 number = free.pop(0)
-                open_digits[bond] = number
-                text += bond_symbol + _digit(number)
-        parts = []
-        for child in children[idx]:
-            bond_symbol = _RING_BOND_SYMBOL.get(graph.order[(idx, child)])
-            below = None if bond_symbol is None else write(child)
-            if bond_symbol is None or below is None:
-                return None
-            parts.append(bond_symbol + below)
-        return text + "".join(f"({p})" for p in parts)
+                open_digits[pair] = number
+                text += closing + _digit(number)
+        branches = [write(child, idx) for child in children[idx]]
+        if None in branches:
+            return None
+        if not closures:
+            branches.sort()
+        return text + "".join(f"({b})" for b in branches)
 
-    body = write(first)
-    return None if body is None else "*" + symbol + body
+    body = write(first, root)
+    return None if body is None else "*" + body
 
 
 def _digit(number: int) -> str:

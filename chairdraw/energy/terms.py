@@ -7,8 +7,8 @@
 * the anomeric effect for O-linked groups and halogens next to a ring oxygen.
 
 A ``ChairModel`` is built once per ring: which pairs of groups can interact and with which table
-row does not depend on the configuration or the chair, so every term is made once and reused
-across the chairs and the relative configurations of the ring. Warnings say where the model is on
+row does not depend on the configuration or the chair, so every term is made once, when the
+model is built, and reused across the chairs and the relative configurations of the ring. Warnings say where the model is on
 thin ice: estimated groups, values from memory, cyclohexane values used in a heterocycle, geminal
 pairs, pairs with no published interaction value, aqueous values used in another solvent.
 """
@@ -102,31 +102,45 @@ class _Entry:
     anomeric: Term | None
 
 
+@dataclass(frozen=True)
+class _Pair:
+    """Two groups on different ring atoms: the terms they bring, made once."""
+
+    n: int  # entry numbers
+    m: int
+    syn: bool  # 1,3 on the ring (a syn-diaxial pair when both are axial); else neighbours
+    diaxial: Term | None = None
+    diaxial_warning: str | None = None
+    gauche_mixed: Term | None = None  # axial/equatorial
+    gauche_equatorial: Term | None = None  # equatorial/equatorial
+
+
 class ChairModel:
     """The additive model for one ring and its groups; ``evaluate`` gives one chair's terms."""
 
-    def __init__(self, ring: ChairRing, groups: Mapping[Key, Group], solvent: str, indices: Mapping[Key, int]):
+    def __init__(self, ring: ChairRing, groups: Mapping[Key, Group], solvent: str):
         self.ring = ring
         self.solvent = solvent
-        self.entries = [self._entry(k, indices[k], g) for k, g in groups.items()]
+        self.entries = [self._entry(k, ring.atoms.index(k[0]), g) for k, g in groups.items()]
         by_order = sorted(range(len(self.entries)), key=lambda n: self.entries[n].index)
-        # (ring distance, entry numbers, entries) of every pair on different ring atoms
-        self._pairs: list[tuple[int, int, int, _Entry, _Entry]] = []
-        self._geminal: list[tuple[int, _Entry, _Entry, tables.GeminalPair]] = []
+        self._pairs: list[_Pair] = []
+        self._geminal: list[tuple[int, Term]] = []  # (entry axial in the chair that gets it, term)
+        self.measured_geminal: set[frozenset[Key]] = set()
         for x, n in enumerate(by_order):
-            a = self.entries[n]
             for m in by_order[x + 1 :]:
-                b = self.entries[m]
-                d = (b.index - a.index) % 6
+                a, b = self.entries[n], self.entries[m]
+                d = b.index - a.index
                 if d == 0:
                     row = _geminal(a.group, b.group)
                     if row is not None:
-                        first, second = (a, b) if a.group.label == row.axial_group else (b, a)
-                        self._geminal.append((self.entries.index(first), first, second, row))
-                elif a.index < b.index:
-                    self._pairs.append((d, n, m, a, b))
+                        first, second = (n, m) if a.group.label == row.axial_group else (m, n)
+                        self._geminal.append((first, self._geminal_term(first, second, row)))
+                        self.measured_geminal.add(frozenset((a.key, b.key)))
+                elif d in (2, 4):
+                    self._pairs.append(self._syn_diaxial(n, m))
+                elif d in (1, 5):
+                    self._pairs.append(self._vicinal(n, m))
         self._anomeric = [(n, e.anomeric) for n, e in enumerate(self.entries) if e.anomeric is not None]
-        self._cache: dict[tuple, tuple[Term | None, str | None]] = {}
 
     def _entry(self, key: Key, index: int, g: Group) -> _Entry:
         loc = self.ring.locants[index]
@@ -161,29 +175,27 @@ class ChairModel:
             if axial[n]:
                 terms.append(e.axial_term)
                 warnings.extend(e.axial_warnings)
-        for d, n, m, a, b in self._pairs:
-            both = axial[n] and axial[m]
-            if d in (2, 4):
-                if not both:
-                    continue
-                term, warning = self._syn_diaxial(a, b)
-            elif d in (1, 5) and not both:
-                term, warning = self._gauche(a, b, axial[n], axial[m])
-            else:
-                continue
-            if term is not None:
-                terms.append(term)
-            if warning is not None:
-                warnings.append(warning)
-        for n, first, second, row in self._geminal:
+        for p in self._pairs:
+            a, b = axial[p.n], axial[p.m]
+            if p.syn:
+                if a and b:
+                    if p.diaxial is not None:
+                        terms.append(p.diaxial)
+                    if p.diaxial_warning is not None:
+                        warnings.append(p.diaxial_warning)
+            elif not (a and b):  # axial/axial neighbours are anti: no gauche term
+                term = p.gauche_mixed if (a or b) else p.gauche_equatorial
+                if term is not None:
+                    terms.append(term)
+        for n, term in self._geminal:
             if axial[n]:
-                terms.append(self._geminal_term(first, second, row))
+                terms.append(term)
         for n, term in self._anomeric:
             if axial[n]:
                 terms.append(term)
         return sum(t.value for t in terms), terms, warnings
 
-    # --- pair terms, each made once per ring ------------------------------------------------------
+    # --- pair terms ---------------------------------------------------------------------------
 
     def _where(self, a: _Entry, b: _Entry) -> str:
         loc = self.ring.locants
@@ -194,57 +206,44 @@ class ChairModel:
             return "; value measured in water"
         return ""
 
-    def _syn_diaxial(self, a: _Entry, b: _Entry) -> tuple[Term | None, str | None]:
-        key = ("syn", a.key, b.key)
-        if key not in self._cache:
-            row = _pair("syn-diaxial", a.group.pair_class, b.group.pair_class)
-            where = self._where(a, b)
-            if row is None:
-                self._cache[key] = (
-                    None,
-                    f"no published syn-1,3-diaxial value for {where}; only the A-values are counted",
-                )
-            else:
-                net = row.value - a.value / 2 - b.value / 2
-                name = (
-                    f"syn-1,3-diaxial {where} ({row.value:g} less the two X/H halves in the A-values"
-                    f"{self._aqueous(row)})"
-                )
-                self._cache[key] = (Term("syn-diaxial", name, a.atoms + b.atoms, net, (row.source,)), None)
-        return self._cache[key]
+    def _syn_diaxial(self, n: int, m: int) -> _Pair:
+        a, b = self.entries[n], self.entries[m]
+        row = _pair("syn-diaxial", a.group.pair_class, b.group.pair_class)
+        where = self._where(a, b)
+        if row is None:
+            warning = f"no published syn-1,3-diaxial value for {where}; only the A-values are counted"
+            return _Pair(n, m, True, diaxial_warning=warning)
+        net = row.value - a.value / 2 - b.value / 2
+        name = f"syn-1,3-diaxial {where} ({row.value:g} less the two X/H halves in the A-values{self._aqueous(row)})"
+        return _Pair(n, m, True, diaxial=Term("syn-diaxial", name, a.atoms + b.atoms, net, (row.source,)))
 
-    def _gauche(self, a: _Entry, b: _Entry, a_axial: bool, b_axial: bool) -> tuple[Term | None, str | None]:
-        kinds = "/".join(sorted("ax" if x else "eq" for x in (a_axial, b_axial)))
-        key = ("gauche", a.key, b.key, kinds)
-        if key not in self._cache:
-            row = _pair("gauche", a.group.pair_class, b.group.pair_class)
-            term = None
-            if row is not None:
-                name = f"gauche {self._where(a, b)} ({kinds}{self._aqueous(row)})"
-                term = Term("gauche", name, a.atoms + b.atoms, row.value, (row.source,))
-            self._cache[key] = (term, None)
-        return self._cache[key]
+    def _vicinal(self, n: int, m: int) -> _Pair:
+        a, b = self.entries[n], self.entries[m]
+        row = _pair("gauche", a.group.pair_class, b.group.pair_class)
+        if row is None:
+            return _Pair(n, m, False)
 
-    def _geminal_term(self, first: _Entry, second: _Entry, row: tables.GeminalPair) -> Term:
-        key = ("geminal", first.key, second.key)
-        if key not in self._cache:
-            value = row.value - (first.value - second.value)
-            name = (
-                f"geminal {first.group.label}/{second.group.label} at {self.ring.locants[first.index]}, "
-                f"{first.group.label} axial: measured pair value {row.value:+g} replaces "
-                f"A({first.group.label}) - A({second.group.label})"
-            )
-            self._cache[key] = (Term("geminal", name, first.atoms + second.atoms[1:], value, (row.source,)), None)
-        term = self._cache[key][0]
-        assert term is not None
-        return term
+        def gauche(kinds: str) -> Term:
+            name = f"gauche {self._where(a, b)} ({kinds}{self._aqueous(row)})"
+            return Term("gauche", name, a.atoms + b.atoms, row.value, (row.source,))
+
+        return _Pair(n, m, False, gauche_mixed=gauche("ax/eq"), gauche_equatorial=gauche("eq/eq"))
+
+    def _geminal_term(self, first: int, second: int, row: tables.GeminalPair) -> Term:
+        a, b = self.entries[first], self.entries[second]
+        value = row.value - (a.value - b.value)
+        name = (
+            f"geminal {a.group.label}/{b.group.label} at {self.ring.locants[a.index]}, "
+            f"{a.group.label} axial: measured pair value {row.value:+g} replaces "
+            f"A({a.group.label}) - A({b.group.label})"
+        )
+        return Term("geminal", name, a.atoms + b.atoms[1:], value, (row.source,))
 
     # --- warnings about the ring as a whole -------------------------------------------------------
 
     def ring_warnings(self) -> list[str]:
         """Estimated groups and geminal pairs (the same in every chair and configuration)."""
         out = []
-        measured = {frozenset((a.key, b.key)) for _, a, b, _ in self._geminal}
         per_index: dict[int, list[_Entry]] = {}
         for e in self.entries:
             per_index.setdefault(e.index, []).append(e)
@@ -264,7 +263,7 @@ class ChairModel:
                     )
             if len(here) == 2 and self.ring.elements[i] == "C":
                 a, b = here
-                if frozenset((a.key, b.key)) in measured:
+                if frozenset((a.key, b.key)) in self.measured_geminal:
                     out.append(
                         f"geminal {a.group.label}/{b.group.label} at {where}: the measured pair value is used "
                         "instead of the two A-values"
