@@ -374,7 +374,8 @@ def test_geminal_methyl_phenyl_prefers_axial_phenyl():
 
 
 def test_unmeasured_geminal_pair_warns_not_additive():
-    # 1-methyl-1-ethyl: no measured pair in geminal.txt, so the additive sum is used and flagged
+    # 1-methyl-1-ethyl: no measured pair in geminal.txt, so the additive sum is used and flagged;
+    # A(Et) 1.79 and A(Me) 1.74 at 300 K (Booth & Everett 1980 [C])
     ring = only_ring("CCC1(C)CCCCC1")
     assert not any(t.kind == "geminal" for c in ring.chairs for t in c.terms)
     assert any("not additive" in w for w in ring.warnings)

@@ -182,7 +182,8 @@ def test_ring_info_behind_the_polycyclic_refusals():
 
 
 def test_norbornane_six_ring_refused_as_bridged():
-    # norbornane's six-membered ring (C1-C2-C3-C4-C5-C6) is outside RDKit's SSSR (two 5-rings);
+    # norbornane's six-membered ring (C1-C2-C3-C4-C5-C6; common practice) is outside RDKit's SSSR
+    # (two 5-rings);
     # every six-membered ring must still be accepted or refused, never silently dropped
     analysis = rings_of("C1CC2CCC1C2")
     assert analysis.rings == ()
@@ -192,7 +193,8 @@ def test_norbornane_six_ring_refused_as_bridged():
 
 
 def test_bicyclooctane_hidden_ring_refused_once():
-    # bicyclo[2.2.2]octane: three six-membered rings, two in the SSSR, all refused as bridged
+    # bicyclo[2.2.2]octane has three six-membered rings (common practice), two in RDKit's SSSR;
+    # all three are refused as bridged
     analysis = rings_of("C1CC2CCC1CC2")
     assert analysis.rings == ()
     assert len({frozenset(r.atoms) for r in analysis.refused}) == 3 == len(analysis.refused)
