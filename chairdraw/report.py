@@ -17,6 +17,17 @@ def energy_text(kcal: float, units: str) -> str:
     return f"{kcal:.2f} kcal/mol"
 
 
+def percent(fraction: float) -> str:
+    """A population in per cent to one decimal; never '100.0' or '0.0' for a chair that is
+    merely very scarce (a Boltzmann population is never exactly 0 or 1)."""
+    value = fraction * 100
+    if value >= 99.95 and fraction < 1:
+        return ">99.9"
+    if value < 0.05 and fraction > 0:
+        return "<0.1"
+    return f"{value:.1f}"
+
+
 def format_analysis(analysis: Analysis, units: str = "kcal") -> str:
     lines = []
     title = analysis.record or analysis.source
@@ -61,7 +72,7 @@ def _ring_lines(k: int, ring: RingResult, units: str, used: list[str]) -> list[s
         label = pa.label + ("*" if pa.estimated else "")
         out.append(f"    {pa.locant:<5}{label:<10}{face:<8}{pa.orientation:<{width}}{pb.orientation:<{width}}")
     out.append(f"    {'energy':<23}{_e(a.energy_kcal_mol, units):<{width}}{_e(b.energy_kcal_mol, units):<{width}}")
-    out.append(f"    {'population':<23}{a.population * 100:<{width}.1f}{b.population * 100:<{width}.1f}(%)")
+    out.append(f"    {'population':<23}{percent(a.population):<{width}}{percent(b.population):<{width}}(%)")
     if ring.degenerate:
         out.append("    the two chairs are equal in energy (degenerate)")
     else:
@@ -113,6 +124,6 @@ def summary_line(analysis: Analysis, units: str = "kcal") -> str:
             axial = ", ".join(f"{p.label}-{p.locant}" for p in fav.axial()) or "none"
             parts.append(
                 f"{ring.kind}{cfg}: {fav.name} favoured by {energy_text(ring.delta_g_kcal_mol, units)} "
-                f"({fav.population * 100:.1f} %), axial: {axial}"
+                f"({percent(fav.population)} %), axial: {axial}"
             )
     return f"{title}: " + "; ".join(parts)

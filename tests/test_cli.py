@@ -116,3 +116,24 @@ def test_output_into_a_closed_pipe_is_quiet():
     reader.wait(timeout=30)
     assert "Traceback" not in writer.stderr, writer.stderr
     assert writer.returncode == 0
+
+
+def test_scarce_chair_population_is_not_rounded_to_zero(capsys):
+    # trans-4-tert-butylcyclohexanol: tBu > 99.9 % equatorial (fact of the trade, science.md §2);
+    # the report must not claim 100.0 % / 0.0 %
+    assert main(["analyze", "CC(C)(C)[C@H]1CC[C@H](O)CC1"]) == 0
+    out = capsys.readouterr().out
+    assert ">99.9" in out and "<0.1" in out
+    assert "100.0" not in out
+    assert main(["demo"]) == 0
+    assert "(100.0 %)" not in capsys.readouterr().out
+
+
+def test_percent_boundaries():
+    from chairdraw.report import percent
+
+    assert percent(0.95) == "95.0"
+    assert percent(0.99949) == "99.9"
+    assert percent(0.9996) == ">99.9"
+    assert percent(0.0004) == "<0.1"
+    assert percent(0.5) == "50.0"
