@@ -2,6 +2,9 @@
 
 * The stereo perception mode is fixed once, at import, because the legacy and the new mode give
   different canonical SMILES for the same molecule (and the new one keeps dependent ring centres).
+* Iterating one of RDKit's wrapped C++ vectors or atom sequences with ``for`` ends in a
+  translated C++ exception (StopIteration) that costs 5-10 us, as much as reading 20 atoms; the hot
+  path indexes them instead (``items``, ``atomic_numbers``).
 * RDKit writes its messages (and C++ stack traces) straight to file descriptor 2. We keep it quiet
   and, only when a parser has failed, parse again with the descriptor redirected, so that the
   message can be turned into one of ours.
@@ -87,3 +90,14 @@ def standard_inchi(mol: Chem.Mol) -> str:
         return Chem.MolToInchi(mol) or ""
     except Exception:
         return ""
+
+
+def items(sequence) -> list:
+    """The elements of an RDKit vector (stereo groups, stereo info, ranks) without iterating it."""
+    return [sequence[i] for i in range(len(sequence))]
+
+
+def atomic_numbers(mol: Chem.Mol) -> list[int]:
+    """Atomic number of every atom, by index (twice as fast as walking ``mol.GetAtoms()``)."""
+    atom = mol.GetAtomWithIdx
+    return [atom(i).GetAtomicNum() for i in range(mol.GetNumAtoms())]

@@ -8,11 +8,14 @@ configuration, each labelled (r/c/t and SMILES).
 
 from __future__ import annotations
 
+from collections.abc import Sequence
+
 from rdkit import Chem
 
+from . import _rdkit
 from .chairs import AXIAL
 from .configurations import enumerate_faces, faces_of
-from .conformers import ChairPair, position_key
+from .conformers import ChairPair, position_key, tops_of
 from .energy import forcefield, tables
 from .energy.terms import ChairModel, Key
 from .errors import EnergyError, StereoError, UsageError
@@ -119,7 +122,7 @@ class Analyzer:
         chairs = ChairPair(ring, model, self.temperature, base_slots)
         if not open_:
             stereo = tuple(Centre(a, loc[a], "specified") for a in centres)
-            return [(mol, chairs.build(base_slots, stereo))]
+            return [(mol, chairs.build(tops_of(base_slots), stereo))]
         if len(open_) > MAX_OPEN_CENTRES:
             raise StereoError(f"{len(open_)} unspecified centres in one ring: too many to enumerate")
         if len(centres) == 1:
@@ -129,21 +132,21 @@ class Analyzer:
                 f"the only stereocentre of this ring ({loc[open_[0]]}) is {status[open_[0]]}: both enantiomers "
                 "have mirror-image chairs of equal energy, so one is analysed"
             )
-            return [(fixed, chairs.build(ring_slots(fixed, ring), stereo, notes=(note,)))]
+            return [(fixed, chairs.build(tops_of(ring_slots(fixed, ring)), stereo, notes=(note,)))]
         others = any(v == "specified" for a, v in status.items() if a not in ring.atoms)
         stereo = tuple(
             Centre(a, loc[a], "specified" if status[a] == "specified" else f"{status[a]}, assumed") for a in centres
         )
-        sizes = {k: g.size for k, g in groups.items()}
+        reference = reference_positions(ring, base_slots, {k: g.size for k, g in groups.items()}, centres)
         out: list[tuple[Chem.Mol | Configuration, RingResult]] = []
-        for slots in enumerate_faces(mol, ring, base_slots, open_, mirror_ok=not others):
-            label = relative_label(ring, slots, sizes, centres)
-            config = Configuration.of(label, mol, ring, faces_of(slots))
+        for tops in enumerate_faces(mol, ring, base_slots, open_, mirror_ok=not others):
+            label = relative_label(ring, reference, tops)
+            config = Configuration.of(label, mol, ring, faces_of(base_slots, tops))
             note = (
                 f"{len(open_)} ring stereocentres are {_words(status, open_)}: each relative configuration "
                 f"is analysed separately; this is {label}"
             )
-            out.append((config, chairs.build(slots, stereo, config, notes=(note,))))
+            out.append((config, chairs.build(tops, stereo, config, notes=(note,))))
         return out
 
 
@@ -165,12 +168,9 @@ def analyze(
 
 
 def _stereo_status(mol: Chem.Mol) -> dict[int, str]:
-    info = Chem.FindPotentialStereo(mol, cleanIt=False, flagPossible=True)
-    return {
-        s.centeredOn: _STATUS.get(s.specified, "unspecified")
-        for s in info
-        if s.type == Chem.StereoType.Atom_Tetrahedral
-    }
+    info = _rdkit.items(Chem.FindPotentialStereo(mol, cleanIt=False, flagPossible=True))
+    tetrahedral = Chem.StereoType.Atom_Tetrahedral
+    return {s.centeredOn: _STATUS.get(s.specified, "unspecified") for s in info if s.type == tetrahedral}
 
 
 def _with_tags(mol: Chem.Mol, tags: dict[int, Chem.ChiralType]) -> Chem.Mol:
@@ -189,26 +189,31 @@ def _words(status: dict[int, str], atoms: list[int]) -> str:
     return " or ".join(kinds)
 
 
-def relative_label(ring: ChairRing, slots: tuple[Slot, ...], sizes: dict[Key, int], centres: list[int]) -> str:
-    """r/c/t descriptor of the ring's stereocentres, e.g. 'r-1,c-4 (cis)'; ``sizes`` ranks the
-    groups of one ring atom (the largest is the reference group there)."""
-    principal: list[tuple[int, Slot]] = []
+def reference_positions(
+    ring: ChairRing, slots: tuple[Slot, ...], sizes: dict[Key, int], centres: list[int]
+) -> list[tuple[int, int]]:
+    """(ring index, slot number) of the group that counts for r/c/t at each stereocentre with a
+    fixed face, in ring order: the largest group there (``sizes``), then the lowest atom index."""
+    out = []
     for atom in centres:
         i = ring.atoms.index(atom)
-        here = [s for s in slots if s.ring_index == i and s.is_group and s.face is not None]
-        if not here:
-            continue
-        here.sort(key=lambda s: (-sizes.get(position_key(s), 0), s.atom or 0))
-        principal.append((i, here[0]))
-    if not principal:
+        here = [j for j, s in enumerate(slots) if s.ring_index == i and s.is_group and s.face is not None]
+        if here:
+            here.sort(key=lambda j: (-sizes.get(position_key(slots[j]), 0), slots[j].atom or 0))
+            out.append((i, here[0]))
+    return sorted(out)
+
+
+def relative_label(ring: ChairRing, reference: list[tuple[int, int]], tops: Sequence[bool | None]) -> str:
+    """r/c/t descriptor of the ring's stereocentres for the faces ``tops``, e.g. 'r-1,c-4 (cis)'."""
+    if not reference:
         return "unlabelled"
-    principal.sort()
-    ref_face = principal[0][1].face
-    parts = [f"r-{ring.locants[principal[0][0]]}"]
-    for i, s in principal[1:]:
-        parts.append(f"{'c' if s.face == ref_face else 't'}-{ring.locants[i]}")
+    ref_top = tops[reference[0][1]]
+    parts = [f"r-{ring.locants[reference[0][0]]}"]
+    for i, j in reference[1:]:
+        parts.append(f"{'c' if tops[j] == ref_top else 't'}-{ring.locants[i]}")
     label = ",".join(parts)
-    if len(principal) == 2:
+    if len(reference) == 2:
         label += " (cis)" if parts[1].startswith("c") else " (trans)"
     return label
 
@@ -228,4 +233,4 @@ def _groups(mol: Chem.Mol, graph: MolGraph, slots: tuple[Slot, ...]) -> dict[Key
     return out
 
 
-__all__ = ["Analyzer", "analyze", "relative_label", "AXIAL", "TOP"]
+__all__ = ["Analyzer", "analyze", "reference_positions", "relative_label", "AXIAL", "TOP"]

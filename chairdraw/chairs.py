@@ -12,6 +12,7 @@ from __future__ import annotations
 
 from collections.abc import Mapping
 from dataclasses import dataclass
+from functools import cache
 
 from .faces import BOTTOM, TOP, Slot
 from .rings import ChairRing
@@ -85,11 +86,16 @@ def inverting_choices(slots: tuple[Slot, ...]) -> list[dict[int, Slot]]:
 
 def chair_name(ring: ChairRing, chair: int) -> str:
     """IUPAC-style descriptor, e.g. '4C1' (superscript first, subscript last), ASCII."""
-    carbons = [k for k, e in enumerate(ring.elements) if e == "C"]
-    low = min(carbons, key=lambda k: _locant_number(ring.locants[k]))
+    return _chair_name(ring.elements, ring.locants, chair)
+
+
+@cache  # few distinct (elements, locants) pairs exist: ring kinds times two numbering styles
+def _chair_name(elements: tuple[str, ...], locants: tuple[str, ...], chair: int) -> str:
+    carbons = [k for k, e in enumerate(elements) if e == "C"]
+    low = min(carbons, key=lambda k: _locant_number(locants[k]))
     high = (low + 3) % 6
     up, down = (low, high) if points_up(chair, low) else (high, low)
-    return f"{_locant_number(ring.locants[up])}C{_locant_number(ring.locants[down])}"
+    return f"{_locant_number(locants[up])}C{_locant_number(locants[down])}"
 
 
 def _locant_number(locant: str) -> int:

@@ -11,14 +11,13 @@ into the other. Reversing the numbering turns the top face into the bottom face.
 from __future__ import annotations
 
 import itertools
-from dataclasses import replace
+from collections.abc import Sequence
 
 from rdkit import Chem
 
+from ._rdkit import items
 from .faces import BOTTOM, TOP, Slot
 from .rings import ChairRing
-
-Pattern = tuple[str, ...]
 
 
 def ring_symmetries(mol: Chem.Mol, ring: ChairRing) -> list[tuple[tuple[int, ...], bool]]:
@@ -32,7 +31,7 @@ def _symmetries_and_ranks(mol: Chem.Mol, ring: ChairRing) -> tuple[list[tuple[tu
     bare = Chem.Mol(mol)
     for atom in ring.atoms:
         bare.GetAtomWithIdx(atom).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
-    ranks = list(Chem.CanonicalRankAtoms(bare, breakTies=False, includeChirality=True))
+    ranks = items(Chem.CanonicalRankAtoms(bare, breakTies=False, includeChirality=True))
     ring_ranks = [ranks[a] for a in ring.atoms]
     out = []
     for shift in range(6):
@@ -43,78 +42,85 @@ def _symmetries_and_ranks(mol: Chem.Mol, ring: ChairRing) -> tuple[list[tuple[tu
     return out, ranks
 
 
-def _principal(slots: tuple[Slot, ...], ranks: dict[int | None, int]) -> dict[int, Slot]:
-    """The higher-ranked exocyclic position of each ring atom, where the two differ."""
-    by_index: dict[int, list[Slot]] = {}
-    for s in slots:
+def _principal(slots: tuple[Slot, ...], ranks: dict[int | None, int]) -> dict[int, int]:
+    """Slot number of the higher-ranked exocyclic position of each ring atom, where the two differ."""
+    by_index: dict[int, list[int]] = {}
+    for j, s in enumerate(slots):
         if s.face is not None:
-            by_index.setdefault(s.ring_index, []).append(s)
+            by_index.setdefault(s.ring_index, []).append(j)
     out = {}
     for i, here in by_index.items():
         if len(here) != 2:
             continue
-        a, b = (ranks.get(s.atom, -1) for s in here)
+        a, b = (ranks.get(slots[j].atom, -1) for j in here)
         if a != b:
             out[i] = here[0] if a > b else here[1]
     return out
 
 
-def _pattern(slots: tuple[Slot, ...], principal_atoms: dict[int, int | None]) -> Pattern:
-    faces = {(s.ring_index, s.atom): s.face for s in slots}
-    return tuple(
-        faces[(i, principal_atoms[i])] or "" if i in principal_atoms else "" for i in range(6)  # type: ignore[misc]
-    )
+# faces in a pattern: 0 no principal group, 1 top, 2 bottom; _FLIP turns one face into the other
+_FLIP = (0, 2, 1)
 
 
-_FLIPPED = {TOP: BOTTOM, BOTTOM: TOP}
-
-
-def _flip(face: str) -> str:
-    return _FLIPPED.get(face, face)
-
-
-def _canonical(pattern: Pattern, symmetries, mirror_ok: bool) -> Pattern:
-    images = []
+def _images(symmetries: list[tuple[tuple[int, ...], bool]], mirror_ok: bool) -> list[tuple[tuple[int, ...], bool]]:
+    """Each symmetry (and its mirror image, where allowed) as (source index of each place, flip faces)."""
+    out = []
     for perm, reverse in symmetries:
-        moved = [""] * 6
+        source = [0] * 6
         for i in range(6):
-            moved[perm[i]] = _flip(pattern[i]) if reverse else pattern[i]
-        images.append(tuple(moved))
+            source[perm[i]] = i
+        out.append((tuple(source), reverse))
         if mirror_ok:
-            images.append(tuple(_flip(f) for f in moved))
-    return min(images)
+            out.append((tuple(source), not reverse))
+    return out
 
 
 def enumerate_faces(
     mol: Chem.Mol, ring: ChairRing, slots: tuple[Slot, ...], open_atoms: list[int], mirror_ok: bool
-) -> list[tuple[Slot, ...]]:
-    """Distinct face assignments of the open centres (the fixed ones keep theirs)."""
+) -> list[tuple[bool | None, ...]]:
+    """Distinct face assignments of the open centres (the fixed ones keep theirs), each as the
+    face of every slot (True top, False bottom, None inverting: see ``conformers.tops_of``)."""
     symmetries, ranks_all = _symmetries_and_ranks(mol, ring)
     ranks: dict[int | None, int] = {a: r for a, r in enumerate(ranks_all)}
-    principal = {i: s.atom for i, s in _principal(slots, ranks).items()}
+    principal = _principal(slots, ranks)
+    images = _images(symmetries, mirror_ok)
     open_index = [ring.atoms.index(a) for a in open_atoms]
-    # each slot and its face-flipped twin, made once
-    twins = [(s, replace(s, face=_flip(s.face)) if s.face is not None and s.ring_index in open_index else s) for s in slots]
-    base = _pattern(slots, principal)
-    seen: set[Pattern] = set()
+    # the slots whose faces an open centre's flip turns over
+    turned = [[j for j, s in enumerate(slots) if s.ring_index == i and s.face is not None] for i in open_index]
+    base = [None if s.face is None else s.face == TOP for s in slots]
+    base_pattern = [0] * 6
+    for i, j in principal.items():
+        base_pattern[i] = 1 if base[j] else 2
+    seen: set[tuple[int, ...]] = set()
     out = []
     for flips in itertools.product((False, True), repeat=len(open_index)):
-        flipped = {i for i, f in zip(open_index, flips) if f}
-        pattern = tuple(_flip(face) if i in flipped else face for i, face in enumerate(base))
-        key = _canonical(pattern, symmetries, mirror_ok)
+        pattern = list(base_pattern)
+        for i, f in zip(open_index, flips):
+            if f:
+                pattern[i] = _FLIP[pattern[i]]
+        key = min(
+            tuple([_FLIP[pattern[k]] for k in source] if flip else [pattern[k] for k in source])
+            for source, flip in images
+        )
         if key in seen:
             continue
         seen.add(key)
-        out.append(tuple(twin if s.ring_index in flipped else s for s, twin in twins))
+        tops = list(base)
+        for js, f in zip(turned, flips):
+            if f:
+                for j in js:
+                    tops[j] = not tops[j]
+        out.append(tuple(tops))
     return out
 
 
-def faces_of(slots: tuple[Slot, ...]) -> dict[int, str]:
-    """Substituent atom -> face, one entry per ring atom (for ``faces.set_faces``)."""
+def faces_of(slots: tuple[Slot, ...], tops: Sequence[bool | None] | None = None) -> dict[int, str]:
+    """Substituent atom -> face, one entry per ring atom (for ``faces.set_faces``); with ``tops``,
+    the faces of that assignment instead of the slots' own."""
     out: dict[int, str] = {}
     done: set[int] = set()
-    for s in slots:
+    for j, s in enumerate(slots):
         if s.atom is not None and s.face is not None and s.ring_index not in done:
-            out[s.atom] = s.face
+            out[s.atom] = s.face if tops is None else (TOP if tops[j] else BOTTOM)
             done.add(s.ring_index)
     return out

@@ -7,13 +7,17 @@ order for every configuration (only faces change), so positions are made once pe
 
 from __future__ import annotations
 
-from .chairs import AXIAL, EQUATORIAL, axial_and_top, chair_name, inverting_choices, points_up
+from collections.abc import Sequence
+from typing import cast
+
+from .chairs import AXIAL, EQUATORIAL, chair_name, inverting_choices, points_up
 from .energy import equilibrium
-from .energy.terms import NO_POSITION_VALUE, ChairModel, Key
+from .energy.terms import NO_POSITION_VALUE, ChairModel, Key, Term
 from .faces import BOTTOM, TOP, Slot
-from .results import Chair, Configuration, Position, RingResult
+from .results import Centre, Chair, Configuration, Position, RingResult
 from .rings import ChairRing
 
+Tops = Sequence["bool | None"]  # per slot: True top face, False bottom, None inverting
 TWIST_WARNING_KCAL = 4.5  # about A(tBu): axial t-Bu-cyclohexane and its twist-boat are close (Wiberg 1999)
 
 
@@ -23,32 +27,48 @@ def position_key(slot: Slot) -> Key:
 
 
 class ChairPair:
-    """Both chairs of one ring for a face assignment, with the ring's energy model.
+    """Both chairs of one ring, for any face assignment of its slots, with the ring's energy model.
 
-    Slots come in the same order for every configuration of a ring (only faces change), so
-    positions are made once per (slot, face, orientation) and reused."""
+    A face assignment is given as ``tops``: per slot (in the order of the ring's slots), True for
+    the top face, False for the bottom, None for an inverting position (``tops_of``). Slots come
+    in the same order for every configuration of a ring (only faces change), so a position is
+    made once per (chair, slot, face) and reused."""
 
     def __init__(self, ring: ChairRing, model: ChairModel, temperature: float, slots: tuple[Slot, ...]):
         self.ring = ring
         self.model = model
         self.temperature = temperature
+        self.slots = slots
         number = {e.key: n for n, e in enumerate(model.entries)}
-        self.entry_at = [number.get(position_key(s)) for s in slots]
+        at = {number[k]: j for j, s in enumerate(slots) if (k := position_key(s)) in number}
+        self.entry_slot = [at[n] for n in range(len(model.entries))]
         self.labels = {e.key: (e.group.label, bool(e.group.estimated_as)) for e in model.entries}
         self.ring_warnings = model.ring_warnings()
+        self.trigonal_warning = (
+            "trigonal ring atom at "
+            + ", ".join(ring.locants[k] for k in ring.trigonal)
+            + ": cyclohexane A-values are used beside it (alkyl-ketone effects are not modelled)"
+            if ring.trigonal
+            else None
+        )
         self.names = (chair_name(ring, 0), chair_name(ring, 1))
         self.up_atoms = tuple(tuple(a for k, a in enumerate(ring.atoms) if points_up(chair, k)) for chair in (0, 1))
-        # one dict per way of putting the inverting ring atoms' positions axial: ring index -> slot number
-        self.choices = [{i: slots.index(s) for i, s in choice.items()} for choice in inverting_choices(slots)]
-        self._positions: dict[tuple[int, bool, bool], Position] = {}
+        self.trigonal_atoms = tuple(ring.atoms[k] for k in ring.trigonal)
+        # whether each slot's ring atom points up (towards the top face), in chair 0 and in chair 1
+        self.up = [[points_up(chair, s.ring_index) for s in slots] for chair in (0, 1)]
+        # the ways of putting one position of each inverting ring atom axial, as slot numbers
+        self.choices = [frozenset(slots.index(s) for s in choice.values()) for choice in inverting_choices(slots)]
+        self.inverting = [j for j, s in enumerate(slots) if s.face is None]
+        # positions made so far, per chair and slot: [bottom face, top face]
+        self._made: list[list[list[Position | None]]] = [[[None, None] for _ in slots] for _ in (0, 1)]
 
-    def build(self, slots, stereo, config: Configuration | None = None, notes: tuple[str, ...] = ()) -> RingResult:
+    def build(
+        self, tops: Tops, stereo: tuple[Centre, ...], config: Configuration | None = None, notes: tuple[str, ...] = ()
+    ) -> RingResult:
+        """Both chairs, their energies and populations for the faces ``tops``."""
         ring = self.ring
-        built = self._both(slots)
-        warnings: list[str] = []
-        for b in built:
-            warnings.extend(w for w in b[3] if w not in warnings)
-        energies = [b[0] for b in built]
+        built = (self._chair(0, tops), self._chair(1, tops))
+        energies = [built[0][0], built[1][0]]
         pops = equilibrium.populations(energies, self.temperature)
         low = min(energies)
         degenerate = abs(energies[0] - energies[1]) < equilibrium.DEGENERATE_KCAL
@@ -60,22 +80,20 @@ class ChairPair:
                 population=pops[chair],
                 favored=(not degenerate) and energy == low,
                 terms=tuple(terms),
-                positions=tuple(positions),
+                positions=positions,
             )
             for chair, (energy, positions, terms, _) in enumerate(built)
         ]
-        warnings = self.ring_warnings + _merge_position_warnings(warnings)
+        warnings = list(self.ring_warnings)
+        if built[0][3] or built[1][3]:
+            warnings += _merge_position_warnings(list(dict.fromkeys(built[0][3] + built[1][3])))
         if low >= TWIST_WARNING_KCAL:
             warnings.append(
                 f"both chairs carry at least {low:.1f} kcal/mol of strain: a twist-boat probably competes "
                 "(axial t-Bu-cyclohexane and its twist-boat are about equal, Wiberg 1999); the chair model does not cover it"
             )
-        if ring.trigonal:
-            warnings.append(
-                "trigonal ring atom at "
-                + ", ".join(ring.locants[k] for k in ring.trigonal)
-                + ": cyclohexane A-values are used beside it (alkyl-ketone effects are not modelled)"
-            )
+        if self.trigonal_warning:
+            warnings.append(self.trigonal_warning)
         return RingResult(
             atoms=ring.atoms,
             locants=ring.locants,
@@ -85,51 +103,54 @@ class ChairPair:
             degenerate=degenerate,
             stereo=stereo,
             configuration=config,
-            trigonal_atoms=tuple(ring.atoms[k] for k in ring.trigonal),
+            trigonal_atoms=self.trigonal_atoms,
             warnings=tuple(warnings),
             notes=notes,
         )
 
-    def _both(self, slots) -> list[tuple[float, list[Position], list, list[str]]]:
-        """Each chair's (energy, positions, terms, warnings); with inverting ring nitrogens, the
-        better of the ways of putting one position of each such nitrogen axial."""
-        built = []
-        for chair in (0, 1):
-            best = None
-            for choice in self.choices:
-                axial = [False] * len(self.model.entries)
-                positions = []
-                for j, s in enumerate(slots):
-                    ax, top = axial_and_top(chair, s, choice.get(s.ring_index) == j)
-                    n = self.entry_at[j]
-                    if n is not None:
-                        axial[n] = ax
-                    positions.append(self._positions.get((j, top, ax)) or self._position(j, s, top, ax))
-                energy, terms, warn = self.model.evaluate(axial)
-                if best is None or energy < best[0] - 1e-9:
-                    best = (energy, positions, terms, warn)
-            assert best is not None
-            built.append(best)
-        return built
+    def _chair(self, chair: int, tops: Tops) -> tuple[float, tuple[Position, ...], list[Term], list[str]]:
+        """(energy, positions, terms, warnings) of one chair; with inverting ring nitrogens, the
+        best of the ways of putting one position of each such nitrogen axial."""
+        up = self.up[chair]
+        best: tuple[float, Sequence[bool], list[Term], list[str]] | None = None
+        for chosen in self.choices:
+            faces = cast("Sequence[bool]", tops)  # None only at inverting positions, set here
+            if self.inverting:  # an inverting position's face follows from whether it is axial
+                faces = [(j in chosen) == up[j] if t is None else t for j, t in enumerate(tops)]
+            # a position is axial where its face is the way its atom points
+            energy, terms, warnings = self.model.evaluate([faces[j] == up[j] for j in self.entry_slot])
+            if best is None or energy < best[0] - 1e-9:
+                best = (energy, faces, terms, warnings)
+        assert best is not None
+        energy, faces, terms, warnings = best
+        made = self._made[chair]
+        positions = tuple([row[top] or self._position(chair, j, top) for j, (row, top) in enumerate(zip(made, faces))])
+        return energy, positions, terms, warnings
 
-    def _position(self, j: int, s: Slot, top: bool, axial: bool) -> Position:
+    def _position(self, chair: int, j: int, top: bool) -> Position:
+        s = self.slots[j]
         label, estimated = self.labels.get(position_key(s), (s.element, False))
         if s.element == "LP":
             label = "lone pair"
         elif s.element == "H":
             label, estimated = "H", False
-        found = Position(
+        made = Position(
             ring_atom=s.ring_atom,
             locant=self.ring.locants[s.ring_index],
             atom=s.atom,
             label=label,
             face=TOP if top else BOTTOM,
-            orientation=AXIAL if axial else EQUATORIAL,
+            orientation=AXIAL if top == self.up[chair][j] else EQUATORIAL,
             inverting=s.inverting,
             estimated=estimated,
         )
-        self._positions[(j, top, axial)] = found
-        return found
+        self._made[chair][j][top] = made
+        return made
+
+
+def tops_of(slots: tuple[Slot, ...]) -> Tops:
+    """The faces of slots as ``ChairPair`` takes them: True top, False bottom, None inverting."""
+    return tuple(None if s.face is None else s.face == TOP for s in slots)
 
 
 def _merge_position_warnings(warnings: list[str]) -> list[str]:

@@ -10,6 +10,8 @@ from __future__ import annotations
 
 from rdkit import Chem
 
+from ._rdkit import atomic_numbers
+
 _TABLE = Chem.GetPeriodicTable()
 _SYMBOLS: dict[int, str] = {}
 
@@ -42,7 +44,7 @@ class MolGraph:
                 self.neighbours[i].append(j)
                 self.neighbours[j].append(i)
                 self.order[(i, j)] = self.order[(j, i)] = v
-        self.z = [a.GetAtomicNum() for a in mol.GetAtoms()]
+        self.z = atomic_numbers(mol)
         self.ring_atoms = {a for ring in mol.GetRingInfo().AtomRings() for a in ring}
         self._hydrogens: dict[int, int] = {}
         self._charges: dict[int, int] = {}

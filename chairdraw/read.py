@@ -152,6 +152,13 @@ _CX_BLOCK = re.compile(r"^(\S+)(\s+\|[^|]*\|)?\s*(.*)$")
 _POSITION = re.compile(r"around position (\d+)")
 
 
+_SMILES_PARAMS = Chem.SmilesParserParams()
+# the RDKit stubs type these attributes wrongly
+_SMILES_PARAMS.removeHs = False  # type: ignore[assignment]
+_SMILES_PARAMS.allowCXSMILES = True  # type: ignore[assignment]
+_SMILES_PARAMS.strictCXSMILES = True  # type: ignore[assignment]
+
+
 def _read_smiles(text: str, source: str, record: str | None, cx: bool) -> Structure:
     line = text.strip().splitlines()[0].strip()
     match = _CX_BLOCK.match(line)
@@ -163,16 +170,12 @@ def _read_smiles(text: str, source: str, record: str | None, cx: bool) -> Struct
             record=record or (source if source != _ARGUMENT else None),
         )
     record = record or title or None
-    params = Chem.SmilesParserParams()
-    # the RDKit stubs type these attributes wrongly
-    params.removeHs = False  # type: ignore[assignment]
-    params.allowCXSMILES = True  # type: ignore[assignment]
-    params.strictCXSMILES = True  # type: ignore[assignment]
+    params = _SMILES_PARAMS
     parse_text = smiles + extension
     mol = Chem.MolFromSmiles(parse_text, params)
     if mol is None:
         raise _smiles_error(parse_text, params, smiles, record or (source if source != _ARGUMENT else None))
-    for listed in re.findall(r"(?:\ba|&\d+|\bo\d+):([\d,]+)", extension):
+    for listed in re.findall(r"(?:\ba|&\d+|\bo\d+):([\d,]+)", extension) if extension else ():
         bad = [int(a) for a in listed.split(",") if a and int(a) >= mol.GetNumAtoms()]
         if bad:
             raise InputError(
@@ -314,5 +317,5 @@ def _groups(mol: Chem.Mol) -> tuple[StereoGroup, ...]:
     }
     return tuple(
         StereoGroup(kinds[g.GetGroupType()], tuple(sorted(a.GetIdx() for a in g.GetAtoms())))
-        for g in mol.GetStereoGroups()
+        for g in _rdkit.items(mol.GetStereoGroups())
     )

@@ -215,7 +215,8 @@ def _refusal(
 
 def _numbered(ring: tuple[int, ...], facts: dict[int, _Facts]) -> ChairRing:
     symbols = {i: facts[i].symbol for i in ring}
-    orders = [tuple(ring[(start + step * k) % 6] for k in range(6)) for start in range(6) for step in (1, -1)]
+    orders = [ring[start:] + ring[:start] for start in range(6)]
+    orders = [o for forward in orders for o in (forward, forward[:1] + forward[:0:-1])]
     sugar = _pyranose_order(orders, facts)
     order = sugar or _lowest_locants(orders, facts)
     elements = tuple(symbols[a] for a in order)
@@ -251,16 +252,21 @@ def _lowest_locants(orders: list[tuple[int, ...]], facts: dict[int, _Facts]) -> 
     seniority = {a: _SENIORITY.get(facts[a].symbol, 3) for a in orders[0]}
 
     def key(order: tuple[int, ...]):
-        f = [flags[a] for a in order]
-        return (
-            [k for k in range(6) if f[k][0]],
-            [seniority[a] for a in order if flags[a][0]],
-            [k for k in range(6) if f[k][1]],
-            [k for k in range(6) if f[k][2]],
-            [k for k in range(6) if f[k][3]],
-            order,
-        )
+        # per criterion, the set of ring positions that meet it as a bit mask with position 0 the
+        # highest bit: with as many positions set in every numbering (the same atoms), lower
+        # locants are the larger mask
+        masks = [0, 0, 0, 0]
+        for k, a in enumerate(order):
+            for c, hit in enumerate(flags[a]):
+                if hit:
+                    masks[c] |= 32 >> k
+        return (-masks[0], [seniority[a] for a in order if flags[a][0]], -masks[1], -masks[2], -masks[3], order)
 
+    # the first criterion that any atom meets puts such an atom at position 1 (the earlier
+    # criteria tie): only numberings that start there can win
+    first = next((c for c in range(4) if any(f[c] for f in flags.values())), None)
+    if first is not None:
+        orders = [o for o in orders if flags[o[0]][first]]
     return min(orders, key=key)
 
 

@@ -202,9 +202,7 @@ def _substituent_atoms(graph: MolGraph, ring_atom: int, first: int) -> list[int]
     return out
 
 
-def fragments(
-    mol: Chem.Mol, bonds: list[tuple[int, int]], graph: MolGraph | None = None
-) -> dict[tuple[int, int], str]:
+def fragments(mol: Chem.Mol, bonds: list[tuple[int, int]], graph: MolGraph | None = None) -> dict[tuple[int, int], str]:
     """Canonical fragment SMILES for each (ring atom, attached atom) bond.
 
     The substituent is written as SMILES from the graph (``_fragment_text``) and that text is

@@ -156,7 +156,9 @@ class ChairModel:
         term = Term("a-value", name, atoms, value, sources, estimated=g.estimated_as is not None)
         warnings = []
         if g.estimated_as is None and any(tables.sources()[k].from_memory for k in row.sources[:1]):
-            warnings.append(f"the A-value of {g.label} at {loc} ({value:g}) is from memory, not from a checked compilation")
+            warnings.append(
+                f"the A-value of {g.label} at {loc} ({value:g}) is from memory, not from a checked compilation"
+            )
         if ctx is not None and not matched:
             warnings.append(f"{NO_POSITION_VALUE}{g.label} at {loc}")
         anomeric = None
@@ -164,7 +166,9 @@ class ChairModel:
         if ring.elements[index] == "C" and "O" in (ring.elements[(index - 1) % 6], ring.elements[(index + 1) % 6]):
             row_a = _anomeric(g.pair_class, self.solvent)
             if row_a is not None:
-                anomeric = Term("anomeric", f"anomeric effect, axial {g.label} at {loc}", atoms, row_a.value, (row_a.source,))
+                anomeric = Term(
+                    "anomeric", f"anomeric effect, axial {g.label} at {loc}", atoms, row_a.value, (row_a.source,)
+                )
         return _Entry(key, index, g, atoms, value, term, tuple(warnings), anomeric)
 
     def evaluate(self, axial: Sequence[bool]) -> tuple[float, list[Term], list[str]]:
@@ -255,7 +259,9 @@ class ChairModel:
                     continue
                 value = g.rows[0].aprotic
                 if g.estimated_as == "unclassified":
-                    out.append(f"{g.label} at {where}: no A-value and no class; a placeholder of {value:g} kcal/mol is used")
+                    out.append(
+                        f"{g.label} at {where}: no A-value and no class; a placeholder of {value:g} kcal/mol is used"
+                    )
                 else:
                     out.append(
                         f"{g.label} at {where} is not in the A-value table: estimated as {g.estimated_as} "
