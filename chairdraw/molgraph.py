@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from rdkit import Chem
 
-from ._rdkit import atomic_numbers
+from ._rdkit import atomic_numbers, items
 
 _TABLE = Chem.GetPeriodicTable()
 _SYMBOLS: dict[int, str] = {}
@@ -25,7 +25,7 @@ def element_symbol(z: int) -> str:
 class MolGraph:
     """Neighbours, bond orders (1, 1.5, 2, 3) and atomic numbers of a molecule, as Python data."""
 
-    __slots__ = ("mol", "z", "neighbours", "order", "ring_atoms", "_hydrogens", "_charges")
+    __slots__ = ("mol", "z", "neighbours", "order", "rings", "ring_atoms", "_hydrogens", "_charges")
 
     def __init__(self, mol: Chem.Mol):
         self.mol = mol
@@ -45,7 +45,8 @@ class MolGraph:
                 self.neighbours[j].append(i)
                 self.order[(i, j)] = self.order[(j, i)] = v
         self.z = atomic_numbers(mol)
-        self.ring_atoms = {a for ring in mol.GetRingInfo().AtomRings() for a in ring}
+        self.rings = [tuple(r) for r in items(mol.GetRingInfo().AtomRings())]  # the smallest set of rings
+        self.ring_atoms = {a for ring in self.rings for a in ring}
         self._hydrogens: dict[int, int] = {}
         self._charges: dict[int, int] = {}
 

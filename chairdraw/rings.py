@@ -79,10 +79,9 @@ class RefusedRing:
 def find_rings(mol: Chem.Mol, graph: MolGraph | None = None) -> tuple[list[ChairRing], list[RefusedRing]]:
     """Every six-membered ring of the molecule, either accepted as a chair ring or refused."""
     graph = graph or MolGraph(mol)
-    info = mol.GetRingInfo()
     accepted: list[ChairRing] = []
     refused: list[RefusedRing] = []
-    all_rings = [tuple(r) for r in info.AtomRings()]
+    all_rings = graph.rings
     for ring in all_rings:
         if len(ring) != 6:
             continue

@@ -244,6 +244,8 @@ def _fragment_text(graph: MolGraph, root: int, first: int) -> str | None:
     exactly when they are the same group (fewer texts for RDKit to make canonical)."""
     if graph.z[first] <= 1 or graph.order[(root, first)] not in _BOND_SYMBOL:
         return None
+    if all(j == root or graph.z[j] <= 1 for j in graph.neighbours[first]):  # one heavy atom: OH, Me, F
+        return "*" + _BOND_SYMBOL[graph.order[(root, first)]] + _atom_text(graph, first)
     children: dict[int, list[int]] = {}
     closures: set[frozenset[int]] = set()
 
