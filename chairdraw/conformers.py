@@ -18,7 +18,12 @@ from .results import Centre, Chair, Configuration, Position, RingResult
 from .rings import ChairRing
 
 Tops = Sequence["bool | None"]  # per slot: True top face, False bottom, None inverting
-TWIST_WARNING_KCAL = 4.5  # about A(tBu): axial t-Bu-cyclohexane and its twist-boat are close (Wiberg 1999)
+# a single interaction this large in both chairs (an axial t-Bu-size group, a syn-diaxial pair of
+# two groups larger than H/Me) makes a twist-boat compete: axial t-Bu-cyclohexane and its twist-boat
+# are close (Wiberg 1999); cis-1,4-di-t-Bu-cyclohexane is mostly twist-boat (Gill 2005); anti-1,3-diol
+# acetonides (2,4-diaxial Me/Me in one chair, 4.7 kcal/mol, Pihlaja 2020) are twist-boats, their syn
+# isomers (only the 2-Me axial, 3.98) chairs (common practice in acetonide analysis)
+TWIST_WARNING_KCAL = 4.5
 
 
 def position_key(slot: Slot) -> Key:
@@ -71,7 +76,8 @@ class ChairPair:
         energies = [built[0][0], built[1][0]]
         pops = equilibrium.populations(energies, self.temperature)
         low = min(energies)
-        degenerate = abs(energies[0] - energies[1]) < equilibrium.DEGENERATE_KCAL
+        # compared as reported (rounded), so that 0.0499999 is not called degenerate beside a printed 0.05
+        degenerate = round(abs(energies[0] - energies[1]), 6) < equilibrium.DEGENERATE_KCAL
         chairs = [
             Chair(
                 name=self.names[chair],
@@ -82,15 +88,17 @@ class ChairPair:
                 terms=tuple(terms),
                 positions=positions,
             )
-            for chair, (energy, positions, terms, _) in enumerate(built)
+            for chair, (energy, positions, terms, _, _) in enumerate(built)
         ]
         warnings = list(self.ring_warnings)
         if built[0][3] or built[1][3]:
             warnings += _merge_position_warnings(list(dict.fromkeys(built[0][3] + built[1][3])))
-        if low >= TWIST_WARNING_KCAL:
+        unavoidable = min(built[0][4], built[1][4])
+        if unavoidable >= TWIST_WARNING_KCAL:
             warnings.append(
-                f"both chairs carry at least {low:.1f} kcal/mol of strain: a twist-boat probably competes "
-                "(axial t-Bu-cyclohexane and its twist-boat are about equal, Wiberg 1999); the chair model does not cover it"
+                f"both chairs carry a single interaction of at least {unavoidable:.1f} kcal/mol (an axial "
+                "t-Bu-size group or a large syn-1,3-diaxial pair): a twist-boat probably competes (axial "
+                "t-Bu-cyclohexane and its twist-boat are about equal, Wiberg 1999); the chair model does not cover it"
             )
         if self.trigonal_warning:
             warnings.append(self.trigonal_warning)
@@ -108,24 +116,24 @@ class ChairPair:
             notes=notes,
         )
 
-    def _chair(self, chair: int, tops: Tops) -> tuple[float, tuple[Position, ...], list[Term], list[str]]:
+    def _chair(self, chair: int, tops: Tops) -> tuple[float, tuple[Position, ...], list[Term], list[str], float]:
         """(energy, positions, terms, warnings) of one chair; with inverting ring nitrogens, the
         best of the ways of putting one position of each such nitrogen axial."""
         up = self.up[chair]
-        best: tuple[float, Sequence[bool], list[Term], list[str]] | None = None
+        best: tuple[float, Sequence[bool], list[Term], list[str], float] | None = None
         for chosen in self.choices:
             faces = cast("Sequence[bool]", tops)  # None only at inverting positions, set here
             if self.inverting:  # an inverting position's face follows from whether it is axial
                 faces = [(j in chosen) == up[j] if t is None else t for j, t in enumerate(tops)]
             # a position is axial where its face is the way its atom points
-            energy, terms, warnings = self.model.evaluate([faces[j] == up[j] for j in self.entry_slot])
+            energy, terms, warnings, largest = self.model.evaluate([faces[j] == up[j] for j in self.entry_slot])
             if best is None or energy < best[0] - 1e-9:
-                best = (energy, faces, terms, warnings)
+                best = (energy, faces, terms, warnings, largest)
         assert best is not None
-        energy, faces, terms, warnings = best
+        energy, faces, terms, warnings, largest = best
         made = self._made[chair]
         positions = tuple([row[top] or self._position(chair, j, top) for j, (row, top) in enumerate(zip(made, faces))])
-        return energy, positions, terms, warnings
+        return energy, positions, terms, warnings, largest
 
     def _position(self, chair: int, j: int, top: bool) -> Position:
         s = self.slots[j]

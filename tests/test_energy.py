@@ -401,6 +401,59 @@ def test_cis_1_4_di_tert_butyl_twist_boat_warning():
     assert not any("twist-boat" in w for w in only_ring(TRANS_14_TBU).warnings)
 
 
+SYN_13_TBU = "CC(C)(C)[C@H]1CCC[C@@H](C(C)(C)C)C1"
+
+
+def test_syn_diaxial_pair_never_makes_two_groups_cheaper_than_apart():
+    # the Me/Me pair value (3.7, Allinger & Miller 1961) is smaller than the two X/H halves of two
+    # t-Bu A-values (4.8 each, Eliel & Wilen 1994): the pair must add nothing rather than subtract
+    assert is_cis_3d(SYN_13_TBU)
+    ring = only_ring(SYN_13_TBU)
+    diaxial = next(c for c in ring.chairs if not c.favored)
+    pair = [t for t in diaxial.terms if t.kind == "syn-diaxial"]
+    assert len(pair) == 1 and pair[0].value == 0.0
+    assert ring.delta_g_kcal_mol >= 2 * 4.8 - TOL
+    assert any("smaller than the two X/H halves" in w for w in ring.warnings)
+
+
+def test_dioxane_diaxial_methyl_pairs_use_the_dioxane_values():
+    # 1,3-dioxanes: 2,4-diaxial Me/Me 4.7 and 4,6-diaxial Me/Me 5.0-5.2 kcal/mol (19.5 and
+    # 21.0-21.6 kJ/mol; Pihlaja, Kivela, Vainiotalo & Steele, Molecules 2020, 25, 2762 [C]), net
+    # of A(2-Me) 3.98 and A(4-Me) 2.9 (Eliel & Knoeber 1968 [M])
+    cis_24 = "C[C@@H]1CCO[C@H](C)O1"
+    cis_46 = "C[C@@H]1C[C@H](C)OCO1"
+    assert is_cis_3d(cis_24) and is_cis_3d(cis_46)
+    for smiles, gross, a, b in ((cis_24, 4.7, 3.98, 2.9), (cis_46, 5.1, 2.9, 2.9)):
+        ring = only_ring(smiles)
+        terms = [t for c in ring.chairs for t in c.terms if t.kind == "syn-diaxial"]
+        assert len(terms) == 1 and terms[0].sources == ("pihlaja2020",)
+        assert terms[0].value == pytest.approx(gross - a / 2 - b / 2, abs=TOL)
+    # a cyclohexane keeps the general Me/Me value (Allinger & Miller 1961)
+    ring = only_ring("C[C@H]1CCC[C@@H](C)C1")
+    terms = [t for c in ring.chairs for t in c.terms if t.kind == "syn-diaxial"]
+    assert len(terms) == 1 and terms[0].sources == ("allinger1961",)
+
+
+def test_acetonide_twist_boat_warning_follows_the_diol_relationship():
+    # 1,3-diol acetonides: the syn isomer (cis-4,6) is a chair with one acetonide Me axial; the anti
+    # isomer (trans-4,6) puts a 4/6-Me syn-axial to the axial 2-Me in both chairs and is a twist-boat
+    # (Rychnovsky, Rogers & Yang, J. Org. Chem. 1993, 58, 3511, from memory; common practice in
+    # assigning 1,3-diols). An axial 2-Me alone (3.98) must not trigger the warning.
+    syn = "C[C@@H]1C[C@H](C)OC(C)(C)O1"
+    anti = "C[C@@H]1C[C@@H](C)OC(C)(C)O1"
+    assert is_cis_3d(syn) and not is_cis_3d(anti)
+    assert not any("twist-boat" in w for w in only_ring(syn).warnings)
+    assert any("twist-boat" in w for w in only_ring(anti).warnings)
+
+
+@pytest.mark.parametrize("smiles", ["BrC1(Cl)CCCCC1", "COC1CCCCO1", "CC1CCCCC1", "C[C@H]1CCCC[C@H]1C"])
+def test_degenerate_exactly_when_the_reported_delta_g_is_below_the_cutoff(smiles):
+    # 0.05 kcal/mol (common practice): judged on the value the report shows, not on float noise
+    for solvent in ("aprotic", "protic"):
+        ring = run(smiles, solvent=solvent).to_dict()["rings"][0]
+        assert ring["degenerate"] == (ring["delta_g_kcal_mol"] < equilibrium.DEGENERATE_KCAL)
+
+
 # --- anomeric effect and heterocycles (science.md §3, §4) ----------------------------------------------
 
 

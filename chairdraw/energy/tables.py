@@ -57,6 +57,7 @@ class PairTerm:
     value: float
     source: str
     note: str
+    context: frozenset[str] | None = None  # the two ring positions' contexts; None: any positions
 
 
 def _rows(name: str) -> list[tuple[int, dict[str, str]]]:
@@ -130,7 +131,11 @@ def pair_terms() -> tuple[PairTerm, ...]:
     for line, r in _rows("pairs.txt"):
         if r["source"] not in known:
             raise DataFileError(f"pairs.txt, line {line}: unknown source {r['source']!r}")
-        out.append(PairTerm(r["term"], r["a"], r["b"], _number("pairs.txt", line, r["value"]), r["source"], r["note"]))
+        where = None if r["context"] == "-" else frozenset(r["context"].split("/"))
+        if where is not None and len(r["context"].split("/")) != 2:
+            raise DataFileError(f"pairs.txt, line {line}: context {r['context']!r} is not two contexts joined by '/'")
+        value = _number("pairs.txt", line, r["value"])
+        out.append(PairTerm(r["term"], r["a"], r["b"], value, r["source"], r["note"], where))
     return tuple(out)
 
 

@@ -65,11 +65,17 @@ def context(ring: ChairRing, i: int) -> str | None:
     return "+".join(f"{e}{d}" for d, e in sorted(parts, key=lambda p: (p[0], p[1])))
 
 
-def _pair(term: str, a: str, b: str) -> tables.PairTerm | None:
+def _pair(term: str, a: str, b: str, where: tuple[str | None, str | None] = (None, None)) -> tables.PairTerm | None:
+    """The table row for a pair of groups of classes a and b at ring positions with the contexts
+    ``where``: a row for exactly those positions if there is one, else the general row."""
+    general = None
     for row in tables.pair_terms():
         if row.term == term and {row.a, row.b} == {a, b} and (a == b) == (row.a == row.b):
-            return row
-    return None
+            if row.context is None:
+                general = general or row
+            elif None not in where and row.context == frozenset(where):
+                return row
+    return general
 
 
 def _anomeric(pair_class: str, solvent: str) -> tables.PairTerm | None:
@@ -100,6 +106,7 @@ class _Entry:
     axial_term: Term
     axial_warnings: tuple[str, ...]
     anomeric: Term | None
+    context: str | None  # ring heteroatoms seen from this position (see ``context``)
 
 
 @dataclass(frozen=True)
@@ -113,6 +120,7 @@ class _Pair:
     diaxial_warning: str | None = None
     gauche_mixed: Term | None = None  # axial/equatorial
     gauche_equatorial: Term | None = None  # equatorial/equatorial
+    gross: float = 0.0  # the published syn-diaxial pair value itself (before the A-value halves)
 
 
 class ChairModel:
@@ -169,20 +177,25 @@ class ChairModel:
                 anomeric = Term(
                     "anomeric", f"anomeric effect, axial {g.label} at {loc}", atoms, row_a.value, (row_a.source,)
                 )
-        return _Entry(key, index, g, atoms, value, term, tuple(warnings), anomeric)
+        return _Entry(key, index, g, atoms, value, term, tuple(warnings), anomeric, ctx)
 
-    def evaluate(self, axial: Sequence[bool]) -> tuple[float, list[Term], list[str]]:
-        """(energy, terms, warnings) of the chair in which entry n is axial when ``axial[n]``."""
+    def evaluate(self, axial: Sequence[bool]) -> tuple[float, list[Term], list[str], float]:
+        """(energy, terms, warnings, largest single interaction) of the chair in which entry n is
+        axial when ``axial[n]``. The largest interaction is the A-value of an axial group or a
+        published syn-1,3-diaxial pair value, whichever is larger (it decides the twist-boat warning)."""
         terms: list[Term] = []
         warnings: list[str] = []
+        largest = 0.0
         for n, e in enumerate(self.entries):
             if axial[n]:
                 terms.append(e.axial_term)
                 warnings.extend(e.axial_warnings)
+                largest = max(largest, e.value)
         for p in self._pairs:
             a, b = axial[p.n], axial[p.m]
             if p.syn:
                 if a and b:
+                    largest = max(largest, p.gross)
                     if p.diaxial is not None:
                         terms.append(p.diaxial)
                     if p.diaxial_warning is not None:
@@ -197,7 +210,7 @@ class ChairModel:
         for n, term in self._anomeric:
             if axial[n]:
                 terms.append(term)
-        return sum(t.value for t in terms), terms, warnings
+        return sum(t.value for t in terms), terms, warnings, largest
 
     # --- pair terms ---------------------------------------------------------------------------
 
@@ -212,14 +225,26 @@ class ChairModel:
 
     def _syn_diaxial(self, n: int, m: int) -> _Pair:
         a, b = self.entries[n], self.entries[m]
-        row = _pair("syn-diaxial", a.group.pair_class, b.group.pair_class)
+        row = _pair("syn-diaxial", a.group.pair_class, b.group.pair_class, (a.context, b.context))
         where = self._where(a, b)
         if row is None:
             warning = f"no published syn-1,3-diaxial value for {where}; only the A-values are counted"
             return _Pair(n, m, True, diaxial_warning=warning)
         net = row.value - a.value / 2 - b.value / 2
         name = f"syn-1,3-diaxial {where} ({row.value:g} less the two X/H halves in the A-values{self._aqueous(row)})"
-        return _Pair(n, m, True, diaxial=Term("syn-diaxial", name, a.atoms + b.atoms, net, (row.source,)))
+        clamped: str | None = None
+        if net < 0:
+            # a pair measured for smaller groups (Me/Me) cannot make two large groups cost less
+            # together than apart: count nothing beyond the A-values, and say so
+            name += ", counted as 0: the halves exceed the pair value"
+            clamped = (
+                f"syn-1,3-diaxial {where}: the published pair value ({row.value:g}, {row.note or row.source}) is "
+                "smaller than the two X/H halves already in the A-values, so nothing is added; the real "
+                "interaction of these groups is probably larger"
+            )
+            net = 0.0
+        term = Term("syn-diaxial", name, a.atoms + b.atoms, net, (row.source,))
+        return _Pair(n, m, True, diaxial=term, diaxial_warning=clamped, gross=row.value)
 
     def _vicinal(self, n: int, m: int) -> _Pair:
         a, b = self.entries[n], self.entries[m]
