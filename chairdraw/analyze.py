@@ -8,6 +8,7 @@ configuration, each labelled (r/c/t and SMILES).
 
 from __future__ import annotations
 
+import math
 from collections.abc import Sequence
 
 from rdkit import Chem
@@ -32,6 +33,8 @@ SOLVENTS = ("aprotic", "protic")
 FORCEFIELD_MODES = ("auto", "always", "never")
 FORCEFIELD_DISAGREES_KCAL = 0.5
 MAX_OPEN_CENTRES = 8
+ROOM_TEMPERATURE = 298.15
+FAR_FROM_ROOM_K = 30.0  # beyond this the unchanged room-temperature free energies get a note
 _N_H = Group("H", "*[H]", "H", tuple(r for r in tables.avalues() if r.label == "H"))
 _STATUS = {
     Chem.StereoSpecified.Specified: "specified",
@@ -49,8 +52,8 @@ class Analyzer:
         self.forcefield = forcefield
         if solvent not in SOLVENTS:
             raise UsageError(f"solvent must be one of {', '.join(SOLVENTS)}, not {solvent!r}")
-        if not temperature > 0:
-            raise UsageError(f"temperature must be above 0 K, not {temperature}")
+        if not (temperature > 0 and math.isfinite(temperature)):
+            raise UsageError(f"temperature must be a finite number above 0 K, not {temperature}")
         self.temperature = float(temperature)
         self.solvent = solvent
 
@@ -68,6 +71,11 @@ class Analyzer:
         notes = list(structure.notes)
         if not rings:
             notes.append("no ring that can take a chair")
+        elif abs(self.temperature - ROOM_TEMPERATURE) > FAR_FROM_ROOM_K:
+            notes.append(
+                f"the A-values and pair terms are free energies measured near room temperature; at "
+                f"{self.temperature:g} K they are used unchanged (their entropy parts are not modelled)"
+            )
         return Analysis(
             record=structure.record,
             source=structure.source,

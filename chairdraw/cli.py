@@ -77,11 +77,20 @@ def main(argv: Sequence[str] | None = None) -> int:
         return OK
 
 
+def _quoted(text: str, width: int = 40) -> str:
+    """A structure given on the command line, as an error message names it."""
+    text = " ".join(text.encode("utf-8", "surrogateescape").decode("utf-8", "replace").split())
+    return repr(text if len(text) <= width else text[: width - 1] + "…")
+
+
 def _analyze(args, analyzer: Analyzer) -> int:
-    if args.input == "-":
-        structure = read_text(sys.stdin.read(), format=args.format, source="stdin")
-    else:
-        structure = read(args.input, format=args.format)
+    try:
+        if args.input == "-":
+            structure = read_text(sys.stdin.read(), format=args.format, source="stdin")
+        else:
+            structure = read(args.input, format=args.format)
+    except ChairdrawError as exc:
+        raise exc.with_record(_quoted(args.input)) from None
     result = analyzer.analyze(structure)
     if args.json:
         print(json.dumps(result.to_dict(), indent=2, ensure_ascii=False))

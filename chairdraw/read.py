@@ -105,6 +105,10 @@ def read_text(text: str, format: str | None = None, source: str = _ARGUMENT, rec
     label = record or (source if source != _ARGUMENT else None)
     if not text.strip():
         raise InputError("the input is empty", record=label)
+    try:
+        text.encode("utf-8")
+    except UnicodeEncodeError as exc:  # bytes that were not UTF-8, kept as surrogates by Python
+        raise InputError(f"character {exc.start + 1} is not valid UTF-8 text", record=label) from None
     fmt = format or sniff(text)
     if fmt in ("smiles", "cxsmiles"):
         return _read_smiles(text, source, record, cx=fmt == "cxsmiles")
@@ -200,6 +204,8 @@ def _smiles_error(parse_text: str, params: Chem.SmilesParserParams, smiles: str,
     reason = next((s for s in sentences if not s.startswith(("check for mistakes", "Failed parsing"))), None)
     reason = reason or (sentences[0] if sentences else "RDKit could not parse it")
     reason = re.sub(r"\s+for input: '.*'$", "", reason)
+    # RDKit counts atoms from 0; a chemist reading the SMILES counts from 1
+    reason = re.sub(r"atom # ?(\d+)", lambda m: f"atom {int(m.group(1)) + 1} of the SMILES (counting from 1)", reason)
     reason = re.sub(r"while parsing: .*$", "", reason).strip().rstrip(":")
     detail = None
     if position is not None:

@@ -561,3 +561,10 @@ def test_geminal_pair_term_in_json_validates():
     jsonschema.validate(data, load())
     kinds = {t["kind"] for c in data["rings"][0]["chairs"] for t in c["terms"]}
     assert "geminal" in kinds
+
+
+def test_temperature_far_from_room_temperature_is_noted():
+    # A-values are free energies near 298 K; their entropy parts (e.g. iPr, Booth & Everett 1980)
+    # are not modelled, so a run at 200 K says that the values were used unchanged
+    assert any("used unchanged" in n for n in run("CC1CCCCC1", temperature=200).notes)
+    assert not any("used unchanged" in n for n in run("CC1CCCCC1", temperature=310).notes)
