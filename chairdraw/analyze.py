@@ -15,7 +15,7 @@ from rdkit import Chem
 
 from . import _rdkit
 from .chairs import AXIAL
-from .configurations import enumerate_faces, faces_of
+from .configurations import enumerate_faces, faces_of, stereo_units
 from .conformers import ChairPair, position_key, tops_of
 from .energy import forcefield, tables
 from .energy.terms import ChairModel, Key
@@ -62,10 +62,11 @@ class Analyzer:
         graph = MolGraph(mol)
         rings, refused = find_rings(mol, graph)
         status = _stereo_status(mol) if rings else {}
+        stereo_groups = [(g.kind, g.atoms) for g in structure.stereo_groups]
         results: list[RingResult] = []
         for ring in rings:
             try:
-                results.extend(self._ring(mol, graph, ring, status))
+                results.extend(self._ring(mol, graph, ring, status, stereo_groups))
             except StereoError as exc:
                 raise exc.with_record(structure.label) from None
         notes = list(structure.notes)
@@ -91,13 +92,15 @@ class Analyzer:
 
     # --- one ring ---------------------------------------------------------------------------
 
-    def _ring(self, mol: Chem.Mol, graph: MolGraph, ring: ChairRing, status: dict[int, str]) -> list[RingResult]:
+    def _ring(
+        self, mol: Chem.Mol, graph: MolGraph, ring: ChairRing, status: dict[int, str], stereo_groups
+    ) -> list[RingResult]:
         base_slots = ring_slots(mol, ring)
         groups = _groups(mol, graph, base_slots)
         model = ChairModel(ring, groups, self.solvent)
         return [
             self._with_forcefield(m, ring, r)
-            for m, r in self._configurations(mol, ring, status, base_slots, groups, model)
+            for m, r in self._configurations(mol, ring, status, base_slots, groups, model, stereo_groups)
         ]
 
     def _with_forcefield(self, mol: Chem.Mol | Configuration, ring: ChairRing, result: RingResult) -> RingResult:
@@ -121,17 +124,18 @@ class Analyzer:
         return _with(result, forcefield_kcal_mol=energies, warnings=warnings)
 
     def _configurations(
-        self, mol, ring, status, base_slots, groups, model
+        self, mol, ring, status, base_slots, groups, model, stereo_groups
     ) -> list[tuple[Chem.Mol | Configuration, RingResult]]:
         """(molecule or configuration whose stereo was analysed, result) for each configuration."""
         centres = [a for a in ring.atoms if a in status]
         open_ = [a for a in centres if status[a] != "specified"]
+        units, split = stereo_units(centres, status, stereo_groups)
         loc = dict(zip(ring.atoms, ring.locants))
         chairs = ChairPair(ring, model, self.temperature, base_slots)
-        if not open_:
+        if not units:
             stereo = tuple(Centre(a, loc[a], "specified") for a in centres)
             return [(mol, chairs.build(tops_of(base_slots), stereo))]
-        if len(open_) > MAX_OPEN_CENTRES:
+        if len(units) > MAX_OPEN_CENTRES:
             raise StereoError(f"{len(open_)} unspecified centres in one ring: too many to enumerate")
         if len(centres) == 1:
             fixed = _with_tags(mol, {open_[0]: CCW})
@@ -142,18 +146,21 @@ class Analyzer:
             )
             return [(fixed, chairs.build(tops_of(ring_slots(fixed, ring)), stereo, notes=(note,)))]
         others = any(v == "specified" for a, v in status.items() if a not in ring.atoms)
-        stereo = tuple(
-            Centre(a, loc[a], "specified" if status[a] == "specified" else f"{status[a]}, assumed") for a in centres
-        )
+        stereo = tuple(Centre(a, loc[a], _centre_status(status[a], split.get(a))) for a in centres)
+        why = []
+        if open_:
+            why.append(f"{len(open_)} ring stereocentres are {_words(status, open_)}")
+        if split:
+            why.append(
+                f"the ring's specified centres are in separate stereo groups ({', '.join(dict.fromkeys(split.values()))}), "
+                "which do not fix their configurations relative to each other"
+            )
         reference = reference_positions(ring, base_slots, {k: g.size for k, g in groups.items()}, centres)
         out: list[tuple[Chem.Mol | Configuration, RingResult]] = []
-        for tops in enumerate_faces(mol, ring, base_slots, open_, mirror_ok=not others):
+        for tops in enumerate_faces(mol, ring, base_slots, units, mirror_ok=not others):
             label = relative_label(ring, reference, tops)
             config = Configuration.of(label, mol, ring, faces_of(base_slots, tops))
-            note = (
-                f"{len(open_)} ring stereocentres are {_words(status, open_)}: each relative configuration "
-                f"is analysed separately; this is {label}"
-            )
+            note = f"{'; '.join(why)}: each relative configuration is analysed separately; this is {label}"
             out.append((config, chairs.build(tops, stereo, config, notes=(note,))))
         return out
 
@@ -190,6 +197,12 @@ def _with_tags(mol: Chem.Mol, tags: dict[int, Chem.ChiralType]) -> Chem.Mol:
 
 def _with(result: RingResult, **changes) -> RingResult:
     return RingResult(**{**result.__dict__, **changes})
+
+
+def _centre_status(status: str, group: str | None) -> str:
+    if status != "specified":
+        return f"{status}, assumed"
+    return "specified" if group is None else f"specified in stereo group {group}, relative to the other groups assumed"
 
 
 def _words(status: dict[int, str], atoms: list[int]) -> str:

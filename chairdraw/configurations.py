@@ -11,7 +11,7 @@ into the other. Reversing the numbering turns the top face into the bottom face.
 from __future__ import annotations
 
 import itertools
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 
 from rdkit import Chem
 
@@ -75,29 +75,63 @@ def _images(symmetries: list[tuple[tuple[int, ...], bool]], mirror_ok: bool) -> 
     return out
 
 
+def stereo_units(
+    centres: list[int], status: Mapping[int, str], groups: Sequence[tuple[str, tuple[int, ...]]]
+) -> tuple[list[list[int]], dict[int, str]]:
+    """The ring's stereocentres whose faces are turned over together when relative configurations
+    are enumerated, and the stereo-group name of each specified centre where that matters.
+
+    An unspecified or unknown centre is a unit of its own. Specified centres keep their relative
+    configuration within one enhanced-stereo group ('abs', '&1', 'or1' ...; centres in no group
+    are absolute); centres in different groups have no stated relation, so every group but one
+    (the absolute one, else the first met in ring order) is a unit."""
+    names: dict[int, str] = {}
+    counts = {"and": 0, "or": 0}
+    for kind, atoms in groups:
+        if kind == "absolute":
+            name = "abs"
+        else:
+            counts[kind] += 1
+            name = f"{'&' if kind == 'and' else 'or'}{counts[kind]}"
+        for a in atoms:
+            names[a] = name
+    specified = [a for a in centres if status[a] == "specified"]
+    by_group: dict[str, list[int]] = {}
+    for a in specified:
+        by_group.setdefault(names.get(a, "abs"), []).append(a)
+    units = [[a] for a in centres if status[a] != "specified"]
+    if len(by_group) < 2:
+        return units, {}
+    reference = "abs" if "abs" in by_group else next(iter(by_group))
+    units += [atoms for name, atoms in by_group.items() if name != reference]
+    return units, {a: names.get(a, "abs") for a in specified}
+
+
 def enumerate_faces(
-    mol: Chem.Mol, ring: ChairRing, slots: tuple[Slot, ...], open_atoms: list[int], mirror_ok: bool
+    mol: Chem.Mol, ring: ChairRing, slots: tuple[Slot, ...], units: list[list[int]], mirror_ok: bool
 ) -> list[tuple[bool | None, ...]]:
-    """Distinct face assignments of the open centres (the fixed ones keep theirs), each as the
-    face of every slot (True top, False bottom, None inverting: see ``conformers.tops_of``)."""
+    """Distinct face assignments of the ring got by turning over the faces of each unit of
+    stereocentres (``stereo_units``; the other centres keep theirs), each as the face of every
+    slot (True top, False bottom, None inverting: see ``conformers.tops_of``)."""
     symmetries, ranks_all = _symmetries_and_ranks(mol, ring)
     ranks: dict[int | None, int] = {a: r for a, r in enumerate(ranks_all)}
     principal = _principal(slots, ranks)
     images = _images(symmetries, mirror_ok)
-    open_index = [ring.atoms.index(a) for a in open_atoms]
-    # the slots whose faces an open centre's flip turns over
-    turned = [[j for j, s in enumerate(slots) if s.ring_index == i and s.face is not None] for i in open_index]
+    unit_index = [[ring.atoms.index(a) for a in unit] for unit in units]
+    # the slots whose faces turning a unit over turns over
+    turned = [[j for j, s in enumerate(slots) if s.ring_index in index and s.face is not None] for index in unit_index]
     base = [None if s.face is None else s.face == TOP for s in slots]
     base_pattern = [0] * 6
     for i, j in principal.items():
         base_pattern[i] = 1 if base[j] else 2
     seen: set[tuple[int, ...]] = set()
     out = []
-    for flips in itertools.product((False, True), repeat=len(open_index)):
+    for flips in itertools.product((False, True), repeat=len(unit_index)):
         pattern = list(base_pattern)
-        for i, f in zip(open_index, flips):
+        for index, f in zip(unit_index, flips):
             if f:
-                pattern[i] = _FLIP[pattern[i]]
+                for i in index:
+                    pattern[i] = _FLIP[pattern[i]]
         key = min(
             tuple([_FLIP[pattern[k]] for k in source] if flip else [pattern[k] for k in source])
             for source, flip in images

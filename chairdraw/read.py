@@ -187,10 +187,31 @@ def _read_smiles(text: str, source: str, record: str | None, cx: bool) -> Struct
                 record=record or (source if source != _ARGUMENT else None),
             )
     notes = []
+    dropped = _dropped_marks(smiles, mol)
+    if dropped:
+        notes.append(
+            f"{dropped} stereo mark(s) of the SMILES were dropped by the reader: as written, the atom "
+            "is not a stereocentre (a centre that is one only together with another, as in 1,4-disubstituted "
+            "rings, needs both marked)"
+        )
     if extension and "w" in extension and mol.GetNumConformers() == 0:
         notes.append("CXSMILES wedges without coordinates are ignored by the reader")
     fmt = "cxsmiles" if extension else "smiles"
     return Structure(mol=mol, format=fmt, source=source, record=record, notes=tuple(notes), stereo_groups=_groups(mol))
+
+
+def _dropped_marks(smiles: str, mol: Chem.Mol) -> int:
+    """How many '@'/'@@' marks of the SMILES left no tetrahedral tag (RDKit removes marks on atoms
+    that are not stereocentres as written)."""
+    marks = len(re.findall(r"@@?", smiles))
+    if not marks:
+        return 0
+    atom = mol.GetAtomWithIdx
+    tagged = sum(1 for i in range(mol.GetNumAtoms()) if atom(i).GetChiralTag() in _TETRAHEDRAL)
+    return max(0, marks - tagged)
+
+
+_TETRAHEDRAL = (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
 
 
 def _smiles_error(parse_text: str, params: Chem.SmilesParserParams, smiles: str, record: str | None) -> InputError:

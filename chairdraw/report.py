@@ -46,7 +46,9 @@ def format_analysis(analysis: Analysis, units: str = "kcal") -> str:
         lines.extend(_ring_lines(k, ring, units, used))
     for refused in analysis.refused:
         lines.append("")
-        lines.append(f"  ring of atoms {', '.join(map(str, refused.atoms))}: not analysed: {refused.reason}")
+        lines.append(
+            f"  ring of atoms {', '.join(map(str, refused.atoms))} (numbered from 0): not analysed: {refused.reason}"
+        )
     if used:
         lines.append("")
         lines.append("  sources")
@@ -57,7 +59,7 @@ def format_analysis(analysis: Analysis, units: str = "kcal") -> str:
 
 def _ring_lines(k: int, ring: RingResult, units: str, used: list[str]) -> list[str]:
     a, b = ring.chairs
-    head = f"  ring {k}: {ring.kind} (atoms {', '.join(map(str, ring.atoms))})"
+    head = f"  ring {k}: {ring.kind} (atoms {', '.join(map(str, ring.atoms))}, numbered from 0)"
     if ring.configuration:
         head += f", configuration {ring.configuration.label}: {ring.configuration.smiles}"
     out = [head]

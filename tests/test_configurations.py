@@ -95,3 +95,49 @@ def test_wavy_bond_centre_is_unknown(tmp_path):
     result = chairdraw.analyze("\n".join(lines) + "\n")
     statuses = {c.status.split(",")[0] for r in result.rings for c in r.stereo}
     assert "unknown" in statuses
+
+
+def _relative_inchi(inchi: str) -> str:
+    """InChI up to its /m layer: the relative configuration, whichever enantiomer."""
+    return inchi.split("/m")[0]
+
+
+TRANS_12 = "C[C@H]1CCCC[C@@H]1C"  # trans-1,2-dimethylcyclohexane
+CIS_12 = "C[C@H]1CCCC[C@H]1C"
+
+
+@pytest.mark.parametrize(
+    "extension, configurations",
+    [
+        ("|o1:1,o2:6|", 2),  # two OR groups: each centre is one of two, independently
+        ("|&1:1,&2:6|", 2),  # two racemic groups: no relation between them
+        ("|a:1,&1:6|", 2),  # an absolute centre and a racemic one
+        ("|&1:1,6|", 1),  # one group: the drawn relative configuration holds, in either enantiomer
+        ("|o1:1,6|", 1),
+    ],
+)
+def test_centres_in_separate_stereo_groups_are_not_related(extension, configurations):
+    # CXSMILES enhanced stereo (the Daylight/ChemAxon extension as RDKit reads it): a group fixes the
+    # relative configuration of its own centres only. Expected configurations come from RDKit's
+    # InChI of the two hand-written diastereomers, not from chairdraw
+    analysis = chairdraw.analyze(f"{TRANS_12} {extension}")
+    assert len(analysis.rings) == configurations
+    found = {_relative_inchi(r.configuration.inchi if r.configuration else analysis.inchi) for r in analysis.rings}
+    wanted = {_relative_inchi(Chem.MolToInchi(Chem.MolFromSmiles(s))) for s in (TRANS_12, CIS_12)}
+    if configurations == 2:
+        assert found == wanted
+        assert all("separate stereo groups" in r.notes[0] for r in analysis.rings)
+        assert all("stereo group" in c.status for r in analysis.rings for c in r.stereo)
+    else:
+        assert found == {_relative_inchi(Chem.MolToInchi(Chem.MolFromSmiles(TRANS_12)))}
+
+
+def test_a_group_of_two_centres_keeps_their_relation_against_a_third():
+    # 1,3,5-trimethylcyclohexane with C1/C3 in one racemic group and C5 in another: C1/C3 stay cis,
+    # C5 is either way; RDKit's InChIs of the two hand-written isomers are the reference
+    smiles = "C[C@H]1C[C@@H](C)C[C@H](C)C1"
+    analysis = chairdraw.analyze(f"{smiles} |&1:1,3,&2:6|")
+    assert len(analysis.rings) == 2
+    other = "C[C@H]1C[C@@H](C)C[C@@H](C)C1"
+    wanted = {_relative_inchi(Chem.MolToInchi(Chem.MolFromSmiles(s))) for s in (smiles, other)}
+    assert {_relative_inchi(r.configuration.inchi) for r in analysis.rings} == wanted

@@ -809,3 +809,13 @@ def test_rdkit_would_print_a_stack_trace_without_chairdraw(capfd) -> None:
     err = capfd.readouterr().err
     assert "Element 'Xx' not found" in err
     assert "Violation" in err
+
+
+def test_a_stereo_mark_that_rdkit_drops_is_reported() -> None:
+    # C1 of 4-methylcyclohexanol is a stereocentre only together with C4: RDKit drops a lone mark
+    # there (checked below on RDKit's own parse), and the reader must say so instead of losing it
+    assert Chem.MolFromSmiles("C[C@H]1CCC(O)CC1").GetAtomWithIdx(1).GetChiralTag() == Chem.ChiralType.CHI_UNSPECIFIED
+    structure = read("C[C@H]1CCC(O)CC1")
+    assert any("1 stereo mark(s) of the SMILES were dropped" in n for n in structure.notes)
+    assert not any("dropped" in n for n in read("C[C@H]1CC[C@H](O)CC1").notes)
+    assert not any("dropped" in n for n in read("CC1CCCCC1").notes)
