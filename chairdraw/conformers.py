@@ -49,13 +49,7 @@ class ChairPair:
         self.entry_slot = [at[n] for n in range(len(model.entries))]
         self.labels = {e.key: (e.group.label, bool(e.group.estimated_as)) for e in model.entries}
         self.ring_warnings = model.ring_warnings()
-        self.trigonal_warning = (
-            "trigonal ring atom at "
-            + ", ".join(ring.locants[k] for k in ring.trigonal)
-            + ": cyclohexane A-values are used beside it (alkyl-ketone effects are not modelled)"
-            if ring.trigonal
-            else None
-        )
+        self.trigonal_warnings = _trigonal_warnings(ring)
         self.names = (chair_name(ring, 0), chair_name(ring, 1))
         self.up_atoms = tuple(tuple(a for k, a in enumerate(ring.atoms) if points_up(chair, k)) for chair in (0, 1))
         self.trigonal_atoms = tuple(ring.atoms[k] for k in ring.trigonal)
@@ -100,8 +94,7 @@ class ChairPair:
                 "t-Bu-size group or a large syn-1,3-diaxial pair): a twist-boat probably competes (axial "
                 "t-Bu-cyclohexane and its twist-boat are about equal, Wiberg 1999); the chair model does not cover it"
             )
-        if self.trigonal_warning:
-            warnings.append(self.trigonal_warning)
+        warnings += self.trigonal_warnings
         return RingResult(
             atoms=ring.atoms,
             locants=ring.locants,
@@ -159,6 +152,26 @@ class ChairPair:
 def tops_of(slots: tuple[Slot, ...]) -> Tops:
     """The faces of slots as ``ChairPair`` takes them: True top, False bottom, None inverting."""
     return tuple(None if s.face is None else s.face == TOP for s in slots)
+
+
+def _trigonal_warnings(ring: ChairRing) -> list[str]:
+    """What the model leaves out next to flat ring atoms: a C=X carbon, or a ring N/O/S that is
+    planar (amide, carbamate, N-aryl)."""
+    out = []
+    carbons = [ring.locants[k] for k in ring.trigonal if ring.elements[k] == "C"]
+    planar = [ring.locants[k] for k in ring.trigonal if ring.elements[k] != "C"]
+    if carbons:
+        out.append(
+            f"trigonal ring atom at {', '.join(carbons)}: cyclohexane A-values are used beside it "
+            "(the effects of the trigonal atom, e.g. alkyl-ketone effects, are not modelled)"
+        )
+    if planar:
+        out.append(
+            f"planar ring heteroatom at {', '.join(planar)} (amide, carbamate or N-aryl): a group on a "
+            "neighbouring carbon often prefers axial there (A(1,3) strain, Johnson 1968), which the model "
+            "does not include"
+        )
+    return out
 
 
 def _merge_position_warnings(warnings: list[str]) -> list[str]:

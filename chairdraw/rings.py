@@ -55,7 +55,8 @@ class ChairRing:
     kind: str
     locants: tuple[str, ...]
     elements: tuple[str, ...]
-    trigonal: tuple[int, ...]  # ring indices of atoms with an exocyclic double bond
+    trigonal: tuple[int, ...]  # ring indices of atoms with an exocyclic double bond, or planar N/O/S
+    ammonium: tuple[int, ...] = ()  # ring indices of nitrogens without a lone pair (R2NH2+, R4N+)
 
     def index(self, atom: int) -> int:
         return self.atoms.index(atom)
@@ -136,8 +137,11 @@ class _Facts:
 
     symbol: str
     degree: int
-    trigonal: bool  # exocyclic double bond on C or N (S(=O)2 stays tetrahedral)
+    trigonal: bool  # exocyclic double bond on C or N (S(=O)2 stays tetrahedral), or a planar N/O/S
     oxo: bool  # exocyclic C=O
+    double_to: str | None  # element of the exocyclic double-bond partner (C=O: 'O')
+    planar: bool  # ring N, O or S conjugated with a neighbour (amide, ester, N-aryl): sp2 in RDKit
+    ammonium: bool  # ring N without a lone pair (four bonds, or a positive charge)
     substituted: bool  # a non-hydrogen exocyclic neighbour
     o_single: bool  # exocyclic O by a single bond
     on_single: bool  # exocyclic O or N by a single bond
@@ -149,6 +153,7 @@ def _facts(graph: MolGraph, ring: tuple[int, ...]) -> dict[int, _Facts]:
     for i in ring:
         symbol = graph.symbol(i)
         trig = oxo = subst = o_single = on_single = False
+        double_to = None
         for j in graph.neighbours[i]:
             if j in members:
                 continue
@@ -158,10 +163,17 @@ def _facts(graph: MolGraph, ring: tuple[int, ...]) -> dict[int, _Facts]:
             if order == 2:
                 trig = trig or symbol in ("C", "N")
                 oxo = oxo or z == 8
+                double_to = graph.symbol(j)
             elif order == 1:
                 o_single = o_single or z == 8
                 on_single = on_single or z in (7, 8)
-        out[i] = _Facts(symbol, len(graph.neighbours[i]), trig, oxo, subst, o_single, on_single)
+        planar = ammonium = False
+        if symbol != "C":
+            atom = graph.mol.GetAtomWithIdx(i)
+            planar = atom.GetHybridization() == Chem.HybridizationType.SP2
+            ammonium = symbol == "N" and (atom.GetFormalCharge() > 0 or atom.GetDegree() + atom.GetTotalNumHs() == 4)
+        degree = len(graph.neighbours[i])
+        out[i] = _Facts(symbol, degree, trig or planar, oxo, double_to, planar, ammonium, subst, o_single, on_single)
     return out
 
 
@@ -208,6 +220,8 @@ def _refusal(
     if len(trigonal) > 2:
         return f"{len(trigonal)} trigonal ring atoms: too flat for the chair model"
     if len(trigonal) == 2 and (trigonal[1] - trigonal[0]) % 6 in (1, 5):
+        if any(facts[ring[k]].planar for k in trigonal):
+            return "ester or amide in the ring (lactone, lactam): two neighbouring planar ring atoms, too flat for the chair model"
         return "two neighbouring trigonal ring atoms: too flat for the chair model"
     return None
 
@@ -228,9 +242,13 @@ def _numbered(ring: tuple[int, ...], facts: dict[int, _Facts]) -> ChairRing:
         locants = tuple(str(k + 1) for k in range(6))
     trig = [a for a in ring if facts[a].trigonal]
     if trig and kind == "cyclohexane":
-        kind = "cyclohexanone" if all(facts[a].oxo for a in trig) else "cyclohexane (exocyclic C=C)"
+        partners = sorted({facts[a].double_to or "?" for a in trig})
+        kind = (
+            "cyclohexanone" if partners == ["O"] else f"cyclohexane (exocyclic {', '.join('C=' + p for p in partners)})"
+        )
     trigonal = tuple(k for k, a in enumerate(order) if facts[a].trigonal)
-    return ChairRing(atoms=order, kind=kind, locants=locants, elements=elements, trigonal=trigonal)
+    ammonium = tuple(k for k, a in enumerate(order) if facts[a].ammonium)
+    return ChairRing(atoms=order, kind=kind, locants=locants, elements=elements, trigonal=trigonal, ammonium=ammonium)
 
 
 def _lowest_locants(orders: list[tuple[int, ...]], facts: dict[int, _Facts]) -> tuple[int, ...]:

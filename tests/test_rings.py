@@ -138,6 +138,10 @@ def test_cyclohexanone_carbonyl_at_1(smiles, carbonyl_locant, methyl_locant):
         ("C1CC[Si](C)(C)CC1", ["Si", "only rings of C, N, O and S"], 1),
         ("O=C1CCCCC1=O", ["two neighbouring trigonal"], 1),
         ("O=S1CCCCC1", ["sulfoxide"], 1),
+        # a lactone and a lactam: the ester/amide puts two neighbouring ring atoms in one plane
+        # (half-chair or sofa rings, common practice)
+        ("O=C1CCCCO1", ["lactone", "too flat"], 1),
+        ("O=C1CCCCN1", ["lactam", "too flat"], 1),
     ],
     ids=[
         "benzene",
@@ -149,6 +153,8 @@ def test_cyclohexanone_carbonyl_at_1(smiles, carbonyl_locant, methyl_locant):
         "silinane",
         "1,2-dione",
         "sulfoxide",
+        "valerolactone",
+        "valerolactam",
     ],
 )
 def test_refusals_with_reasons(smiles, words, n_refused):
@@ -262,3 +268,46 @@ def test_unspecified_4_methylcyclohexanol_gives_cis_and_trans():
     analysis = rings_of("CC1CCC(O)CC1")
     labels = sorted(r.configuration.label for r in analysis.rings)
     assert labels == ["r-1,c-4 (cis)", "r-1,t-4 (trans)"]
+
+
+@pytest.mark.parametrize(
+    "smiles",
+    ["CC(=O)N1CCCC[C@@H]1C", "CC(C)(C)OC(=O)N1CCCC[C@@H]1C", "c1ccccc1N1CCCC[C@@H]1C"],
+    ids=["N-acetyl", "N-Boc", "N-phenyl"],
+)
+def test_planar_ring_nitrogen_is_trigonal_and_the_free_amine_values_are_not_used(smiles):
+    # an amide, carbamate or N-aryl ring nitrogen is planar (RDKit: sp2): it has no axial or
+    # equatorial substituent, and a 2-substituent next to it often prefers axial (A(1,3) strain;
+    # Johnson, Chem. Rev. 1968, 68, 375, from memory), so the 2-methylpiperidine value (measured
+    # on the free amine, Eliel 1980) must not be used and the report must warn
+    ring = only_ring(smiles)
+    assert ring.kind == "piperidine"
+    assert ring.trigonal_atoms == (ring.atoms[0],)
+    assert all(p.ring_atom != ring.atoms[0] for c in ring.chairs for p in c.positions)
+    assert any("A(1,3) strain" in w for w in ring.warnings)
+    terms = [t for c in ring.chairs for t in c.terms if t.kind == "a-value"]
+    assert terms and all("eliel1980" not in t.sources for t in terms)
+
+
+@pytest.mark.parametrize(
+    "smiles, kind",
+    [
+        ("CC1CCC(=O)CC1", "cyclohexanone"),
+        ("CC1CCC(=N)CC1", "cyclohexane (exocyclic C=N)"),
+        ("CC1CCC(=S)CC1", "cyclohexane (exocyclic C=S)"),
+        ("C=C1CCC(C)CC1", "cyclohexane (exocyclic C=C)"),
+    ],
+)
+def test_exocyclic_double_bond_named_by_its_partner(smiles, kind):
+    assert only_ring(smiles).kind == kind
+
+
+def test_ring_ammonium_does_not_take_the_free_amine_values():
+    # a piperidinium has no lone pair on N: the N-methylpiperidine value (against the lone pair)
+    # and the 2-methylpiperidine value (free amine) do not apply (common practice)
+    ring = only_ring("C[C@H]1CC[C@@H](C)[N+](C)(C)C1")
+    terms = [t for c in ring.chairs for t in c.terms if t.kind == "a-value"]
+    # every axial Me gets the cyclohexane value, A(Me) 1.74 (Booth & Everett 1980), with a warning
+    assert terms and all(t.value == pytest.approx(1.74) for t in terms)
+    assert any("cyclohexane values are used" in w for w in ring.warnings)
+    assert not any("twist-boat" in w for w in ring.warnings)

@@ -52,12 +52,18 @@ NO_POSITION_VALUE = "cyclohexane A-value used (no value for this ring position):
 
 
 def context(ring: ChairRing, i: int) -> str | None:
-    """Ring heteroatoms seen from ring index i, e.g. 'O1+O3'; 'N-ring' on a ring nitrogen."""
+    """Ring heteroatoms seen from ring index i, e.g. 'O1+O3'; 'N-ring' on a ring nitrogen. A ring
+    nitrogen without a lone pair (an ammonium) is 'N+': the piperidine rows, measured on the free
+    amine and against the lone pair, do not apply to it; a planar one (amide, N-aryl) is 'Nsp2'."""
     if ring.elements[i] == "N":
-        return "N-ring"
+        return "N+ring" if i in ring.ammonium else "N-ring"
     parts = []
     for j, element in enumerate(ring.elements):
         if element != "C" and j != i:
+            if j in ring.ammonium:
+                element = "N+"
+            elif j in ring.trigonal:  # a planar N/O (amide, N-aryl): the sp3 ring's rows do not apply
+                element += "sp2"
             d = abs(j - i)
             parts.append((min(d, 6 - d), element))
     if not parts:
