@@ -568,3 +568,11 @@ def test_temperature_far_from_room_temperature_is_noted():
     # are not modelled, so a run at 200 K says that the values were used unchanged
     assert any("used unchanged" in n for n in run("CC1CCCCC1", temperature=200).notes)
     assert not any("used unchanged" in n for n in run("CC1CCCCC1", temperature=310).notes)
+
+
+def test_vicinal_pair_without_a_published_gauche_value_is_named():
+    # gauche Me/Me 0.9 (E&W-derived table [C2]) and O/O 0.35 (Angyal [C]) are tabulated; Me/NH2 and
+    # Cl/Cl are not: their gauche interaction is left out and the report must say so
+    assert any("no published gauche value for NH2/Me" in w for w in only_ring("C[C@H]1CCCC[C@@H]1N").warnings)
+    assert any("no published gauche value for Cl/Cl" in w for w in only_ring("Cl[C@H]1CCCC[C@@H]1Cl").warnings)
+    assert not any("gauche value" in w for w in only_ring("C[C@H]1CCCC[C@@H]1C").warnings)

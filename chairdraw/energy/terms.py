@@ -127,6 +127,7 @@ class _Pair:
     gauche_mixed: Term | None = None  # axial/equatorial
     gauche_equatorial: Term | None = None  # equatorial/equatorial
     gross: float = 0.0  # the published syn-diaxial pair value itself (before the A-value halves)
+    gauche_warning: str | None = None  # neighbours with no published gauche value
 
 
 class ChairModel:
@@ -210,6 +211,8 @@ class ChairModel:
                 term = p.gauche_mixed if (a or b) else p.gauche_equatorial
                 if term is not None:
                     terms.append(term)
+                elif p.gauche_warning is not None:
+                    warnings.append(p.gauche_warning)
         for n, term in self._geminal:
             if axial[n]:
                 terms.append(term)
@@ -256,7 +259,8 @@ class ChairModel:
         a, b = self.entries[n], self.entries[m]
         row = _pair("gauche", a.group.pair_class, b.group.pair_class)
         if row is None:
-            return _Pair(n, m, False)
+            warning = f"no published gauche value for {self._where(a, b)}; only the A-values are counted"
+            return _Pair(n, m, False, gauche_warning=warning)
 
         def gauche(kinds: str) -> Term:
             name = f"gauche {self._where(a, b)} ({kinds}{self._aqueous(row)})"
