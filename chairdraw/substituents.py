@@ -35,7 +35,7 @@ class Group:
         """(value, row, context_matched). Falls back to the cyclohexane row."""
         if context is not None:
             for row in self.rows:
-                if row.context == context:
+                if row.context == context and row.covers(solvent):
                     return row.value(solvent), row, True
         for row in self.rows:
             if row.context is None:

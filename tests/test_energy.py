@@ -358,6 +358,46 @@ def test_glucose_anomer_ratio_in_water():
     assert 0.2 <= alpha_fraction <= 0.45
 
 
+# Angyal's method (Encycl. Phys. Sci. Technol. 3rd ed. 2001, "Carbohydrates", Table V [C]): sum
+# the factors present in each chair. Factors (kcal/mol): 1,3-diaxial O/O 1.5, O/C 2.5, O/H 0.45,
+# C/H 0.9; gauche O/O 0.35, C/O 0.45; an equatorial O1 costs 0.55 more beside an equatorial O2 and
+# 1.0 more beside an axial one. The sums below are done by hand, interaction by interaction.
+BETA_L_IDO = "OC[C@@H]1O[C@@H](O)[C@H](O)[C@@H](O)[C@@H]1O"  # C5 epimer of beta-D-Glcp
+ALPHA_MAN = "OC[C@H]1O[C@H](O)[C@@H](O)[C@@H](O)[C@@H]1O"
+BETA_MAN = "OC[C@H]1O[C@@H](O)[C@@H](O)[C@@H](O)[C@@H]1O"
+
+
+def test_beta_glucose_chairs_by_angyals_factors():
+    # 4C1, all equatorial: gauche O1/O2, O2/O3, O3/O4 3 x 0.35, O4/C6 0.45, equatorial O1 0.55 = 2.05
+    # 1C4, all axial: O1/O3 1.5, O2/O4 1.5, O1/C6 2.5, O3/C6 2.5 = 8.0 (O2 and O4 have the ring O
+    # as their other partner, O1 and O3 have C6); no gauche (axial neighbours are anti)
+    ring = only_ring(BETA_GLC, solvent="protic")
+    assert ring.favored.name == "4C1"
+    assert ring.delta_g_kcal_mol == pytest.approx(8.0 - 2.05, abs=TOL)
+
+
+def test_c5_epimer_of_glucose_by_angyals_factors():
+    # 4C1 (C6 axial): C6/H1, C6/H3 2 x 0.9, gauche 3 x 0.35 + O4/C6 0.45, equatorial O1 0.55 = 3.85
+    # 1C4 (O1-O4 axial): O1/O3 1.5, O2/O4 1.5, O1/H5 0.45, O3/H5 0.45, gauche O4/C6 0.45 = 4.35
+    ring = only_ring(BETA_L_IDO, solvent="protic")
+    assert ring.favored.name == "4C1"
+    assert ring.delta_g_kcal_mol == pytest.approx(4.35 - 3.85, abs=TOL)
+
+
+def test_mannose_anomer_ratio_in_water():
+    # D-mannose in water is about 2:1 alpha:beta (65.5:34.5, Angyal 1969, from memory [M]; window
+    # 0.55-0.80). By Angyal's factors (both 4C1, O2 axial): alpha has O1/H3, O1/H5 0.9; beta has
+    # gauche O1/O2 0.35 and the equatorial-O1-beside-axial-O2 1.0; the rest is common to both
+    energies = []
+    for smiles in (ALPHA_MAN, BETA_MAN):
+        ring = only_ring(smiles, solvent="protic")
+        assert ring.favored.name == "4C1"
+        energies.append(absolute(ring.favored))
+    assert energies[1] - energies[0] == pytest.approx((0.35 + 1.0) - 0.9, abs=TOL)
+    alpha_fraction = equilibrium.populations(energies, 298.15)[0]
+    assert 0.55 <= alpha_fraction <= 0.80
+
+
 # --- non-additivity and twist-boat warnings (science.md §2) --------------------------------------------
 
 
@@ -405,7 +445,7 @@ SYN_13_TBU = "CC(C)(C)[C@H]1CCC[C@@H](C(C)(C)C)C1"
 
 
 def test_syn_diaxial_pair_never_makes_two_groups_cheaper_than_apart():
-    # the Me/Me pair value (3.7, Allinger & Miller 1961) is smaller than the two X/H halves of two
+    # the Me/Me pair value (3.7, Allinger & Miller 1961) is smaller than the two X/H parts (halves) of two
     # t-Bu A-values (4.8 each, Eliel & Wilen 1994): the pair must add nothing rather than subtract
     assert is_cis_3d(SYN_13_TBU)
     ring = only_ring(SYN_13_TBU)
@@ -413,7 +453,7 @@ def test_syn_diaxial_pair_never_makes_two_groups_cheaper_than_apart():
     pair = [t for t in diaxial.terms if t.kind == "syn-diaxial"]
     assert len(pair) == 1 and pair[0].value == 0.0
     assert ring.delta_g_kcal_mol >= 2 * 4.8 - TOL
-    assert any("smaller than the two X/H halves" in w for w in ring.warnings)
+    assert any("smaller than the two X/H interactions" in w for w in ring.warnings)
 
 
 def test_dioxane_diaxial_methyl_pairs_use_the_dioxane_values():

@@ -29,15 +29,21 @@ class Source:
 class AValue:
     label: str
     group: str  # substituent SMILES with '*' for the ring atom, as written in the file
-    aprotic: float
+    aprotic: float | None  # None only on context rows measured in water
     protic: float | None
     context: str | None
     sources: tuple[str, ...]
     note: str
+    xh: float | None = None  # one 1,3-diaxial X/H interaction's part of the value; None: half of it
+
+    def covers(self, solvent: str) -> bool:
+        return self.aprotic is not None or (solvent == "protic" and self.protic is not None)
 
     def value(self, solvent: str) -> float:
         if solvent == "protic" and self.protic is not None:
             return self.protic
+        if self.aprotic is None:
+            raise ValueError(f"no {solvent} value for {self.label} ({self.context})")
         return self.aprotic
 
 
@@ -99,15 +105,19 @@ def avalues() -> tuple[AValue, ...]:
         for k in keys:
             if k not in known:
                 raise DataFileError(f"avalues.txt, line {line}: unknown source {k!r}")
+        context = None if r["context"] == "-" else r["context"]
+        if r["aprotic"] == "-" and (context is None or r["protic"] == "-"):
+            raise DataFileError(f"avalues.txt, line {line}: only a context row with a protic value may omit aprotic")
         out.append(
             AValue(
                 label=r["label"],
                 group=r["group"],
-                aprotic=_number("avalues.txt", line, r["aprotic"]),
+                aprotic=None if r["aprotic"] == "-" else _number("avalues.txt", line, r["aprotic"]),
                 protic=None if r["protic"] == "-" else _number("avalues.txt", line, r["protic"]),
-                context=None if r["context"] == "-" else r["context"],
+                context=context,
                 sources=keys,
                 note=r["note"],
+                xh=None if r["xh"] == "-" else _number("avalues.txt", line, r["xh"]),
             )
         )
     return tuple(out)

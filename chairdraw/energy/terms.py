@@ -1,7 +1,7 @@
 """The energy of one chair as a list of named, sourced terms (additive model).
 
 * A-value of every axial group (the ring position's own value where the table has one);
-* syn-1,3-diaxial pairs, net of the two X/H halves already inside the A-values;
+* syn-1,3-diaxial pairs, net of the two X/H interactions already inside the A-values;
 * vicinal gauche pairs (equatorial/equatorial and axial/equatorial neighbours);
 * geminal pairs that were measured as a pair (``geminal.txt``), replacing additivity;
 * the anomeric effect for O-linked groups and halogens next to a ring oxygen.
@@ -84,9 +84,9 @@ def _pair(term: str, a: str, b: str, where: tuple[str | None, str | None] = (Non
     return general
 
 
-def _anomeric(pair_class: str, solvent: str) -> tables.PairTerm | None:
+def _anomeric(pair_class: str, solvent: str, term: str = "anomeric") -> tables.PairTerm | None:
     for row in tables.pair_terms():
-        if row.term == "anomeric" and row.a == pair_class and row.b in (solvent, "any"):
+        if row.term == term and row.a == pair_class and row.b in (solvent, "any"):
             return row
     return None
 
@@ -113,6 +113,7 @@ class _Entry:
     axial_warnings: tuple[str, ...]
     anomeric: Term | None
     context: str | None  # ring heteroatoms seen from this position (see ``context``)
+    xh: float  # the part of ``value`` made by one 1,3-diaxial X/H interaction
 
 
 @dataclass(frozen=True)
@@ -126,7 +127,7 @@ class _Pair:
     diaxial_warning: str | None = None
     gauche_mixed: Term | None = None  # axial/equatorial
     gauche_equatorial: Term | None = None  # equatorial/equatorial
-    gross: float = 0.0  # the published syn-diaxial pair value itself (before the A-value halves)
+    gross: float = 0.0  # the published syn-diaxial pair value itself (before the X/H parts)
     gauche_warning: str | None = None  # neighbours with no published gauche value
 
 
@@ -156,6 +157,8 @@ class ChairModel:
                 elif d in (1, 5):
                     self._pairs.append(self._vicinal(n, m))
         self._anomeric = [(n, e.anomeric) for n, e in enumerate(self.entries) if e.anomeric is not None]
+        # (anomeric entry, neighbour entry, term): added where the first is equatorial, the second axial
+        self._anomeric_neighbour = [(n, m, term) for n, _ in self._anomeric for m, term in self._neighbour_terms(n)]
 
     def _entry(self, key: Key, index: int, g: Group) -> _Entry:
         loc = self.ring.locants[index]
@@ -184,7 +187,8 @@ class ChairModel:
                 anomeric = Term(
                     "anomeric", f"anomeric effect, axial {g.label} at {loc}", atoms, row_a.value, (row_a.source,)
                 )
-        return _Entry(key, index, g, atoms, value, term, tuple(warnings), anomeric, ctx)
+        xh = row.xh if (matched and row.xh is not None) else value / 2
+        return _Entry(key, index, g, atoms, value, term, tuple(warnings), anomeric, ctx, xh)
 
     def evaluate(self, axial: Sequence[bool]) -> tuple[float, list[Term], list[str], float]:
         """(energy, terms, warnings, largest single interaction) of the chair in which entry n is
@@ -219,7 +223,30 @@ class ChairModel:
         for n, term in self._anomeric:
             if axial[n]:
                 terms.append(term)
+        for n, m, term in self._anomeric_neighbour:
+            if axial[m] and not axial[n]:
+                terms.append(term)
         return sum(t.value for t in terms), terms, warnings, largest
+
+    def _neighbour_terms(self, n: int) -> list[tuple[int, Term]]:
+        """The extra cost of an equatorial anomeric group when the group on the next ring carbon
+        (C2 of a pyranose) is axial, where the table has one (Angyal: O1(eq)/O2(ax) 1.0, not 0.55)."""
+        a = self.entries[n]
+        ring = self.ring
+        side = next((k for k in ((a.index - 1) % 6, (a.index + 1) % 6) if ring.elements[k] == "C"), None)
+        out = []
+        for m, b in enumerate(self.entries):
+            if b.index != side:
+                continue
+            row = _anomeric(a.group.pair_class, self.solvent, "anomeric-2-axial")
+            if row is not None and b.group.pair_class == "O":
+                loc = ring.locants
+                name = (
+                    f"equatorial {a.group.label} at {loc[a.index]} beside axial {b.group.label} at "
+                    f"{loc[b.index]} ({row.note}{self._aqueous(row)})"
+                )
+                out.append((m, Term("anomeric", name, a.atoms + b.atoms, row.value, (row.source,))))
+        return out
 
     # --- pair terms ---------------------------------------------------------------------------
 
@@ -239,16 +266,19 @@ class ChairModel:
         if row is None:
             warning = f"no published syn-1,3-diaxial value for {where}; only the A-values are counted"
             return _Pair(n, m, True, diaxial_warning=warning)
-        net = row.value - a.value / 2 - b.value / 2
-        name = f"syn-1,3-diaxial {where} ({row.value:g} less the two X/H halves in the A-values{self._aqueous(row)})"
+        net = row.value - a.xh - b.xh
+        name = (
+            f"syn-1,3-diaxial {where} ({row.value:g} less the two X/H interactions it replaces, "
+            f"{a.xh:.3g} and {b.xh:.3g}, counted in the A-values{self._aqueous(row)})"
+        )
         clamped: str | None = None
         if net < 0:
             # a pair measured for smaller groups (Me/Me) cannot make two large groups cost less
             # together than apart: count nothing beyond the A-values, and say so
-            name += ", counted as 0: the halves exceed the pair value"
+            name += ", counted as 0: they exceed the pair value"
             clamped = (
                 f"syn-1,3-diaxial {where}: the published pair value ({row.value:g}, {row.note or row.source}) is "
-                "smaller than the two X/H halves already in the A-values, so nothing is added; the real "
+                "smaller than the two X/H interactions already in the A-values, so nothing is added; the real "
                 "interaction of these groups is probably larger"
             )
             net = 0.0
@@ -292,7 +322,7 @@ class ChairModel:
                 g = e.group
                 if not g.estimated_as:
                     continue
-                value = g.rows[0].aprotic
+                value = g.rows[0].value("aprotic")
                 if g.estimated_as == "unclassified":
                     out.append(
                         f"{g.label} at {where}: no A-value and no class; a placeholder of {value:g} kcal/mol is used"
