@@ -127,7 +127,7 @@ def test_output_into_a_closed_pipe_is_quiet():
 
 
 def test_scarce_chair_population_is_not_rounded_to_zero(capsys):
-    # trans-4-tert-butylcyclohexanol: tBu > 99.9 % equatorial (fact of the trade, science.md §2);
+    # trans-4-tert-butylcyclohexanol: tBu > 99.9 % equatorial (fact of the trade);
     # the report must not claim 100.0 % / 0.0 %
     assert main(["analyze", "CC(C)(C)[C@H]1CC[C@H](O)CC1"]) == 0
     out = capsys.readouterr().out

@@ -1,7 +1,7 @@
 """Published checks of the energy model (chairdraw.energy) through chairdraw.analyze.
 
-Every number checked here comes from /work/shared/science.md; its source is named beside it.
-Tags as in science.md: [C] compiled with the primary paper, [C2] secondary compilation only,
+Every number checked here is a published value; its source is named beside it. Tags: [C] read
+in a compilation with the primary paper named, [C2] secondary compilation only,
 [M] from memory (said so beside the test), "common practice" where no paper is needed.
 
 Every analysis goes through ``run()``, which also checks that every term of every chair has a
@@ -94,8 +94,8 @@ def inchi(smiles: str) -> str:
 
 # --- 1. A-values of monosubstituted cyclohexanes ---------------------------------------------------
 #
-# (id, SMILES, solvent, expected: number (within 0.01) or (low, high) where science.md recommends a
-# range, source as science.md §1 gives it)
+# (id, SMILES, solvent, expected: number (within 0.01) or (low, high) where the compilations give a
+# range, source)
 A_VALUES = [
     ("F", "FC1CCCCC1", "aprotic", 0.25, "Reich [C]: Jensen 1969 0.28, Schneider 1978 0.36"),
     ("Cl", "ClC1CCCCC1", "aprotic", 0.5, "Reich [C]: Jensen 1969 0.53, Schneider 1978 0.51"),
@@ -126,7 +126,13 @@ A_VALUES = [
     ("Me", "CC1CCCCC1", "aprotic", 1.74, "Booth & Everett 1980, -dG(300 K) [C]; Reich 1.70"),
     ("Et", "CCC1CCCCC1", "aprotic", 1.79, "Booth & Everett 1980, -dG(300 K) [C]"),
     ("iPr", "CC(C)C1CCCCC1", "aprotic", 2.2, "E&W 2.2; Booth & Everett 1980 2.21 [C]"),
-    ("tBu", "CC(C)(C)C1CCCCC1", "aprotic", (4.7, 5.0), "science.md: 4.9, 'use >= 4.7'; E&W 4.8, Reich >4.5 [C]"),
+    (
+        "tBu",
+        "CC(C)(C)C1CCCCC1",
+        "aprotic",
+        (4.7, 5.0),
+        "4.9 (Manoharan & Eliel 1984, from memory); E&W 4.8, Reich >4.5 [C]",
+    ),
     ("CH2OH", "OCC1CCCCC1", "aprotic", 1.8, "from memory [M, low confidence]: not found"),
     ("CF3", "FC(F)(F)C1CCCCC1", "aprotic", 2.4, "Carcenac et al., dynamic 19F NMR [C/C2]"),
     ("CHF2", "FC(F)C1CCCCC1", "aprotic", 1.85, "Carcenac et al. [C2]"),
@@ -198,7 +204,7 @@ def test_a_value_deuterium():
 
 
 def test_methylcyclohexane_95_percent_equatorial():
-    # science.md §1 intro: A = 1.74 (Booth & Everett 1980) gives K ~ 19, 95 % equatorial at 298 K
+    # A = 1.74 (Booth & Everett 1980 [C]) gives K ~ 19, 95 % equatorial at 298 K
     ring = only_ring("CC1CCCCC1")
     fav = ring.favored
     assert fav is not None
@@ -217,14 +223,14 @@ def test_methylcyclohexane_more_equatorial_when_cold():
 
 
 def test_tert_butylcyclohexane_locked():
-    # science.md §2 "4-tert-Butyl locking": A(tBu) >= 4.7, so > 99.9 % equatorial [C] (fact of the trade)
+    # 4-tert-butyl locking: A(tBu) >= 4.7 (E&W 1994, Reich [C]), so > 99.9 % equatorial (fact of the trade)
     ring = only_ring("CC(C)(C)C1CCCCC1")
     fav = ring.favored
     assert [p.orientation for p in groups(fav)] == ["equatorial"]
     assert fav.population > 0.999
 
 
-# --- dimethylcyclohexanes (science.md §2 table) -----------------------------------------------------
+# --- dimethylcyclohexanes -------------------------------------------------------------------------
 #
 # Each isomer: (SMILES used, a second independent spelling, cis?). The SMILES are hand-written; the
 # test cross-checks them twice: standard InChI against the second spelling, and cis/trans read from
@@ -259,7 +265,7 @@ def _partner(name: str) -> str:
 
 @pytest.mark.parametrize("name", ["cis-1,2", "trans-1,3", "cis-1,4"])
 def test_dimethyl_degenerate(name):
-    # science.md §2: ae <-> ea, degenerate, dG 0 (Yale chem220 [C2])
+    # ae <-> ea, degenerate, dG 0 (Yale chem220 teaching table [C2])
     ring = only_ring(DIMETHYL[name][0])
     assert ring.degenerate
     assert ring.delta_g_kcal_mol < 0.05
@@ -303,7 +309,7 @@ def test_dimethyl_configurational_energy(stable, unstable, low, high):
     assert low <= best[unstable] - best[stable] <= high
 
 
-# --- glucose (science.md §3) ---------------------------------------------------------------------------
+# --- glucose -----------------------------------------------------------------------------------------
 #
 # Cross-checks of the hand-written SMILES: a second spelling (PubChem style) must give the same
 # standard InChI, the InChIKeys are those of beta-/alpha-D-glucopyranose (from memory [M]), and the
@@ -398,7 +404,7 @@ def test_mannose_anomer_ratio_in_water():
     assert 0.55 <= alpha_fraction <= 0.80
 
 
-# --- non-additivity and twist-boat warnings (science.md §2) --------------------------------------------
+# --- non-additivity and twist-boat warnings -------------------------------------------------------------
 
 
 def test_geminal_methyl_phenyl_prefers_axial_phenyl():
@@ -494,7 +500,7 @@ def test_degenerate_exactly_when_the_reported_delta_g_is_below_the_cutoff(smiles
         assert ring["degenerate"] == (ring["delta_g_kcal_mol"] < equilibrium.DEGENERATE_KCAL)
 
 
-# --- anomeric effect and heterocycles (science.md §3, §4) ----------------------------------------------
+# --- anomeric effect and heterocycles -------------------------------------------------------------------
 
 
 def test_2_methoxyoxane_axial():
@@ -569,14 +575,14 @@ def test_unknown_group_is_estimated_and_named():
 
 
 def test_values_from_memory_are_warned():
-    # CH2OH (science.md §1: not found, [M]) carries a "from memory" warning
+    # CH2OH (not found in the compilations, [M]) carries a "from memory" warning
     ring = only_ring("OCC1CCCCC1")
     assert any("from memory" in w for w in ring.warnings)
 
 
 @pytest.mark.parametrize("smiles", ["CC1CCCCO1", "CC1OCCCO1"], ids=["2-methyloxane", "2-methyl-1,3-dioxane"])
 def test_memory_status_rows_are_warned(smiles):
-    # science.md §4 marks the methyloxane (Eliel 1982) and methyl-1,3-dioxane (Eliel & Knoeber 1968) values [M]
+    # the methyloxane (Eliel 1982) and methyl-1,3-dioxane (Eliel & Knoeber 1968) values are from memory [M]
     ring = only_ring(smiles)
     assert any("from memory" in w for w in ring.warnings), ring.warnings
 

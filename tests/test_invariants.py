@@ -149,7 +149,7 @@ def test_ring_flip_swaps_orientation_and_keeps_face(smiles):
 
 # --- 2. the outside check: RDKit 3D chairs ------------------------------------------------------
 
-CHAIR_R, CHAIR_Z = 1.446, 0.25  # ideal chair (library-notes section 2): C-C 1.530 A, torsions +-59 deg
+CHAIR_R, CHAIR_Z = 1.446, 0.25  # ideal chair: C-C 1.530 A, torsions +-59 deg (common practice)
 AXIAL_COS, EQUATORIAL_COS = 0.75, 0.5  # |cos(bond, normal)| above: axial; below: equatorial
 EMBED_SEED = 0xC4A12
 
@@ -204,7 +204,7 @@ def test_top_normal_sign_convention():
 
 
 def embed_chair0(mol: Chem.Mol, ring_atoms: tuple[int, ...]) -> Chem.Mol | None:
-    """AddHs and ETKDG with the ring pinned to chair 0 (library-notes section 2); None on failure."""
+    """AddHs and ETKDG with the ring pinned to chair 0 (a coordinate map); None on failure."""
     mh = Chem.AddHs(mol)
     ps = rdDistGeom.ETKDGv3()
     ps.randomSeed = EMBED_SEED
