@@ -176,7 +176,11 @@ class Analysis:
 
     @cached_property
     def smiles(self) -> str:
+        """Canonical SMILES of the input; a CXSMILES with its enhanced-stereo groups where it has
+        any, so that 'racemic' or 'one of two' is not lost."""
         heavy = Chem.RemoveHs(self.mol, sanitize=False) if _has_h_atoms(self.mol) else self.mol
+        if len(heavy.GetStereoGroups()):
+            return Chem.MolToCXSmiles(heavy, Chem.SmilesWriteParams(), Chem.CXSmilesFields.CX_ENHANCEDSTEREO)
         return Chem.MolToSmiles(heavy)
 
     @cached_property

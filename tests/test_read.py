@@ -819,3 +819,18 @@ def test_a_stereo_mark_that_rdkit_drops_is_reported() -> None:
     assert any("1 stereo mark(s) of the SMILES were dropped" in n for n in structure.notes)
     assert not any("dropped" in n for n in read("C[C@H]1CC[C@H](O)CC1").notes)
     assert not any("dropped" in n for n in read("CC1CCCCC1").notes)
+
+
+def test_identity_smiles_keeps_the_enhanced_stereo_groups() -> None:
+    # a racemic registration written as CXSMILES must not come back as a plain (absolute) SMILES;
+    # RDKit's own CXSMILES writer is the reference for the text
+    import chairdraw
+
+    text = "C[C@H]1CCCC[C@@H]1C |&1:1,6|"
+    analysis = chairdraw.analyze(text)
+    expected = Chem.MolToCXSmiles(
+        Chem.MolFromSmiles(text), Chem.SmilesWriteParams(), Chem.CXSmilesFields.CX_ENHANCEDSTEREO
+    )
+    assert analysis.smiles == expected and "&1:" in analysis.smiles
+    assert analysis.stereo_meaning == "racemic"
+    assert chairdraw.analyze("C[C@H]1CCCC[C@@H]1C").smiles == "C[C@H]1CCCC[C@@H]1C"
