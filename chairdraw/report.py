@@ -119,13 +119,18 @@ def summary_line(analysis: Analysis, units: str = "kcal") -> str:
     for ring in analysis.rings:
         cfg = f" [{ring.configuration.label}]" if ring.configuration else ""
         if ring.degenerate:
-            parts.append(f"{ring.kind}{cfg}: chairs equal ({ring.chairs[0].name} = {ring.chairs[1].name})")
+            text = f"{ring.kind}{cfg}: chairs equal ({ring.chairs[0].name} = {ring.chairs[1].name})"
         else:
             fav = ring.favored
             assert fav is not None
             axial = ", ".join(f"{p.label}-{p.locant}" for p in fav.axial()) or "none"
-            parts.append(
+            text = (
                 f"{ring.kind}{cfg}: {fav.name} favoured by {energy_text(ring.delta_g_kcal_mol, units)} "
                 f"({percent(fav.population)} %), axial: {axial}"
             )
+        if any("twist-boat" in w for w in ring.warnings):
+            text += ", twist-boat likely"
+        if ring.warnings:
+            text += f" ({len(ring.warnings)} warning{'s' if len(ring.warnings) > 1 else ''}: see --full)"
+        parts.append(text)
     return f"{title}: " + "; ".join(parts)

@@ -622,3 +622,11 @@ def test_vicinal_pair_without_a_published_gauche_value_is_named():
     assert any("no published gauche value for NH2/Me" in w for w in only_ring("C[C@H]1CCCC[C@@H]1N").warnings)
     assert any("no published gauche value for Cl/Cl" in w for w in only_ring("Cl[C@H]1CCCC[C@@H]1Cl").warnings)
     assert not any("gauche value" in w for w in only_ring("C[C@H]1CCCC[C@@H]1C").warnings)
+
+
+def test_geminal_pair_of_equal_groups_is_not_flagged():
+    # 1,1-dimethylcyclohexane: one Me is axial in each chair, so the pair's cost cancels in the
+    # chair equilibrium (the chairs are identical: common practice); no non-additivity warning
+    ring = only_ring("CC1(C)CCCCC1")
+    assert ring.degenerate
+    assert not any("geminal" in w for w in ring.warnings)

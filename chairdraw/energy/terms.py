@@ -332,7 +332,8 @@ class ChairModel:
                         f"{g.label} at {where} is not in the A-value table: estimated as {g.estimated_as} "
                         f"(value of {g.rows[0].label}, {value:g} kcal/mol)"
                     )
-            if len(here) == 2 and self.ring.elements[i] == "C":
+            # two equal groups: one is axial in each chair, so whatever the pair costs cancels in the ΔG
+            if len(here) == 2 and self.ring.elements[i] == "C" and here[0].group.label != here[1].group.label:
                 a, b = here
                 if frozenset((a.key, b.key)) in self.measured_geminal:
                     out.append(
