@@ -64,6 +64,16 @@ def _symbol_problem(symbol: str) -> str | None:
     return f"unknown element '{symbol}'"
 
 
+def _shifted_fields(line: str, by_column: tuple[int, int, int]) -> tuple[int, int, int] | None:
+    """The first three numbers as the spaces separate them, where they differ from the fixed
+    columns and no field ran into its neighbour (atom numbers of 100 and more may touch: '100101')."""
+    tokens = line.split()[:3]
+    if len(tokens) < 3 or any(len(t) > 3 or not t.isdigit() for t in tokens):
+        return None
+    spaced = (int(tokens[0]), int(tokens[1]), int(tokens[2]))
+    return None if spaced == by_column else spaced
+
+
 def _diagnose_v2000(lines: list[str]) -> str | None:
     counts = lines[3]
     n_atoms, n_bonds = _int(counts[0:3]), _int(counts[3:6])
@@ -101,6 +111,12 @@ def _diagnose_v2000(lines: list[str]) -> str | None:
         a, b, order = _int(line[0:3]), _int(line[3:6]), _int(line[6:9])
         if a is None or b is None or order is None:
             return f"{where}: cannot read two atom numbers and a bond type from {line[:9]!r}"
+        shifted = _shifted_fields(line, (a, b, order))
+        if shifted is not None:
+            return (
+                f"{where}: the numbers are not in the fixed columns of a V2000 bond line (by column "
+                f"{a}-{b} type {order}, by spaces {shifted[0]}-{shifted[1]} type {shifted[2]}): {line.rstrip()!r}"
+            )
         for end in (a, b):
             if not 1 <= end <= n_atoms:
                 return f"{where}: atom number {end} is outside 1..{n_atoms}"

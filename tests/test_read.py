@@ -611,6 +611,13 @@ V2000_BROKEN = [
         id="bond-type-99",
     ),
     pytest.param(
+        set_line(14, "  2  13  1  0"),
+        "line 14 of the file (bond block, bond 2): the numbers are not in the fixed columns of a V2000 bond "
+        "line (by column 2-1 type 3, by spaces 2-13 type 1)",
+        "a bond line shifted by one column reads as another bond (RDKit reads the columns)",
+        id="bond-line-shifted",
+    ),
+    pytest.param(
         drop_lines(21), "no 'M  END' line after the bond block (truncated molfile)", "no M  END", id="missing-m-end"
     ),
 ]
