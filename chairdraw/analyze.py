@@ -17,7 +17,7 @@ from . import _rdkit
 from .chairs import AXIAL
 from .configurations import enumerate_faces, faces_of, stereo_units
 from .conformers import ChairPair, position_key, tops_of
-from .energy import forcefield, tables
+from .energy import equilibrium, forcefield, tables
 from .energy.terms import ChairModel, Key
 from .errors import EnergyError, StereoError, UsageError
 from .faces import CCW, TOP, Slot, ring_slots
@@ -32,6 +32,7 @@ SOLVENTS = ("aprotic", "protic")
 # the library default is 'never' (bulk speed), the command line's is 'auto'
 FORCEFIELD_MODES = ("auto", "always", "never")
 FORCEFIELD_DISAGREES_KCAL = 0.5
+AUTO_FORCEFIELD_MAX_HEAVY = 40  # the automatic check embeds the molecule 16 times: keep it quick
 MAX_OPEN_CENTRES = 8
 ROOM_TEMPERATURE = 298.15
 FAR_FROM_ROOM_K = 30.0  # beyond this the unchanged room-temperature free energies get a note
@@ -52,9 +53,14 @@ class Analyzer:
         self.forcefield = forcefield
         if solvent not in SOLVENTS:
             raise UsageError(f"solvent must be one of {', '.join(SOLVENTS)}, not {solvent!r}")
-        if not (temperature > 0 and math.isfinite(temperature)):
-            raise UsageError(f"temperature must be a finite number above 0 K, not {temperature}")
-        self.temperature = float(temperature)
+        try:
+            kelvin = float(temperature)
+        except (TypeError, ValueError, OverflowError):
+            kelvin = math.nan
+        # R*T must stay a positive float for the Boltzmann weights (1e-322 K rounds it to 0)
+        if not (math.isfinite(kelvin) and kelvin > 0 and equilibrium.R_KCAL * kelvin > 0):
+            raise UsageError(f"temperature must be a finite number of kelvin above 0, not {str(temperature)[:24]}")
+        self.temperature = kelvin
         self.solvent = solvent
 
     def analyze(self, structure: Structure) -> Analysis:
@@ -68,7 +74,10 @@ class Analyzer:
             try:
                 results.extend(self._ring(mol, graph, ring, status, stereo_groups))
             except StereoError as exc:
-                raise exc.with_record(structure.label) from None
+                # a structure given as text has no name of its own: the caller names it
+                raise exc.with_record(
+                    structure.record or (None if structure.source == "argument" else structure.source)
+                ) from None
         notes = list(structure.notes)
         if not rings:
             notes.append("no ring that can take a chair")
@@ -109,6 +118,13 @@ class Analyzer:
             return result
         if isinstance(mol, Configuration):
             mol = mol.molecule
+        heavy = mol.GetNumHeavyAtoms()
+        if self.forcefield == "auto" and heavy > AUTO_FORCEFIELD_MAX_HEAVY:
+            skipped = (
+                f"MMFF94 comparison skipped: {heavy} heavy atoms (the automatic check stops at "
+                f"{AUTO_FORCEFIELD_MAX_HEAVY}; ask for it with forcefield 'always')"
+            )
+            return _with(result, warnings=result.warnings + (skipped,))
         try:
             energies = forcefield.chair_energies(mol, ring)
         except EnergyError as exc:

@@ -91,7 +91,9 @@ def chair_name(ring: ChairRing, chair: int) -> str:
 
 @cache  # few distinct (elements, locants) pairs exist: ring kinds times two numbering styles
 def _chair_name(elements: tuple[str, ...], locants: tuple[str, ...], chair: int) -> str:
-    carbons = [k for k, e in enumerate(elements) if e == "C"]
+    # the reference plane leaves out the lowest-numbered carbon (a ring of S or N only: the
+    # lowest-numbered atom) and the atom opposite it
+    carbons = [k for k, e in enumerate(elements) if e == "C"] or list(range(6))
     low = min(carbons, key=lambda k: _locant_number(locants[k]))
     high = (low + 3) % 6
     up, down = (low, high) if points_up(chair, low) else (high, low)

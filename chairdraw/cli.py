@@ -23,9 +23,8 @@ OK, MISMATCH, BAD_INPUT = 0, 1, 2
 
 
 class _Parser(argparse.ArgumentParser):
-    def error(self, message: str):  # argparse exits with 2 too, but we keep the wording short
-        self.print_usage(sys.stderr)
-        print(f"chairdraw: usage: {message}", file=sys.stderr)
+    def error(self, message: str):  # argparse exits with 2 too; we keep it to one line
+        print(f"chairdraw: usage: {message} (see '{self.prog} --help')", file=sys.stderr)
         raise SystemExit(BAD_INPUT)
 
 
@@ -89,9 +88,9 @@ def _analyze(args, analyzer: Analyzer) -> int:
             structure = read_text(sys.stdin.read(), format=args.format, source="stdin")
         else:
             structure = read(args.input, format=args.format)
+        result = analyzer.analyze(structure)
     except ChairdrawError as exc:
         raise exc.with_record(_quoted(args.input)) from None
-    result = analyzer.analyze(structure)
     if args.json:
         print(json.dumps(result.to_dict(), indent=2, ensure_ascii=False))
     else:

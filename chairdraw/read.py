@@ -80,7 +80,7 @@ def read(
     if isinstance(source, Structure):
         return source
     if isinstance(source, Chem.Mol):
-        return Structure(mol=Chem.Mol(source), format="rdkit", source="RDKit molecule", record=record)
+        return Structure(mol=_checked_copy(source, record), format="rdkit", source="RDKit molecule", record=record)
     if format is not None and format not in FORMATS:
         raise FormatError(f"unknown format {format!r}; choose one of {', '.join(FORMATS)}", record=record)
     if isinstance(source, os.PathLike):
@@ -89,6 +89,20 @@ def read(
     if "\n" not in text and text.strip() and _looks_like_path(text.strip()):
         return read_file(Path(text.strip()), format=format, record=record)
     return read_text(text, format=format, source=_ARGUMENT, record=record)
+
+
+def _checked_copy(mol: Chem.Mol, record: str | None) -> Chem.Mol:
+    """A sanitized copy of a molecule handed over from RDKit: an unsanitized one has no ring
+    information (every ring would be missed without a word), a query (SMARTS) one is no structure."""
+    atom = mol.GetAtomWithIdx
+    if any(atom(i).HasQuery() for i in range(mol.GetNumAtoms())):
+        raise InputError("the RDKit molecule is a query (SMARTS), not a structure", record=record)
+    copy = Chem.Mol(mol)
+    try:
+        Chem.SanitizeMol(copy)
+    except Exception as exc:  # RDKit's sanitization errors are several C++-wrapped types
+        raise InputError(f"the RDKit molecule cannot be sanitized: {exc}", record=record) from None
+    return copy
 
 
 def read_file(path: Path, format: str | None = None, record: str | None = None) -> Structure:
@@ -143,7 +157,7 @@ def _looks_like_path(text: str) -> bool:
     # structure-file suffix makes a path
     if text.startswith("InChI="):
         return False
-    return os.path.isfile(text) or text.lower().endswith(_SUFFIXES)
+    return os.path.exists(text) or text.lower().endswith(_SUFFIXES)
 
 
 def _format_from_suffix(path: Path) -> str | None:

@@ -214,6 +214,10 @@ def _refusal(
             "not supported yet"
         )
     for i in ring:
+        odd = _not_tetrahedral(graph, i, facts[i])
+        if odd:
+            return f"ring atom {i} {odd}: not a chair ring atom"
+    for i in ring:
         if facts[i].symbol == "S" and facts[i].degree == 3:
             return f"ring sulfoxide at atom {i}: sulfur stereo is not modelled yet"
     trigonal = [k for k, i in enumerate(ring) if facts[i].trigonal]
@@ -223,6 +227,25 @@ def _refusal(
         if any(facts[ring[k]].planar for k in trigonal):
             return "ester or amide in the ring (lactone, lactam): two neighbouring planar ring atoms, too flat for the chair model"
         return "two neighbouring trigonal ring atoms: too flat for the chair model"
+    return None
+
+
+_BONDS_AND_H = {"C": (4,), "N": (3, 4), "O": (2,), "S": (2, 3, 4)}
+
+
+def _not_tetrahedral(graph: MolGraph, i: int, f: _Facts) -> str | None:
+    """Why a ring atom cannot sit in a chair as drawn (a radical, a carbocation or carbanion, an
+    odd count of bonds and hydrogens), or None."""
+    if graph.mol.GetAtomWithIdx(i).GetNumRadicalElectrons():
+        return "has an unpaired electron (a radical)"
+    charge = graph.charge(i)
+    if f.symbol == "C" and charge:
+        return "is a carbocation" if charge > 0 else "is a carbanion"
+    if f.trigonal:
+        return None  # a C=O carbon or a planar N has three
+    total = f.degree + graph.hydrogens(i)
+    if total not in _BONDS_AND_H[f.symbol] or (f.symbol == "N" and total == 4 and charge <= 0):
+        return f"({f.symbol}) has {total} bonds and hydrogens"
     return None
 
 

@@ -97,6 +97,8 @@ def recognise(fragment: str) -> Group:
     table = _table()
     rows = table.get(fragment)
     mol = Chem.MolFromSmiles(fragment)
+    if mol is None:  # RDKit wrote it but cannot read it back: nothing to match, say so
+        return Group(fragment.lstrip("*") or "?", fragment, "?", (_placeholder(fragment),), "unclassified")
     attached = _attached_element(mol)
     pair_class = "X" if attached in HALOGENS else attached
     size = sum(1 for a in mol.GetAtoms() if a.GetAtomicNum() > 1)
@@ -213,10 +215,11 @@ def fragments(mol: Chem.Mol, bonds: list[tuple[int, int]], graph: MolGraph | Non
     rest = []
     for r, s in bonds:
         text = _fragment_text(graph, r, s)
-        if text is None:
+        piece = None if text is None else _canonical_piece(text)
+        if piece is None:
             rest.append((r, s))
         else:
-            out[(r, s)] = _canonical_piece(text)
+            out[(r, s)] = piece
     if rest:
         out.update(_cut_fragments(mol, rest))
     return out
@@ -317,12 +320,14 @@ def _cut_fragments(mol: Chem.Mol, bonds: list[tuple[int, int]]) -> dict[tuple[in
         if a and owner[int(a)] not in seen:
             seen.append(owner[int(a)])
     text_of = dict(zip(seen, text.split(".")))
-    return {(r, s): _canonical_piece(text_of[owner[s]]) for r, s in bonds}
+    return {(r, s): _canonical_piece(text_of[owner[s]]) or text_of[owner[s]] for r, s in bonds}
 
 
 @cache
-def _canonical_piece(smiles: str) -> str:
+def _canonical_piece(smiles: str) -> str | None:
+    """Canonical form of a written fragment; None where RDKit cannot read it back (a dative
+    bond written as a plain one), so that the group is cut off by RDKit instead."""
     try:
         return canonical_fragment(smiles)  # also drops hydrogens drawn as atoms (molfiles, AddHs)
     except ValueError:
-        return smiles
+        return None

@@ -66,6 +66,7 @@ def test_stdin(monkeypatch, capsys):
         ),
         (["analyze", "C1CC\udcffCCC1"], "read: character 5 is not valid UTF-8 text"),
         (["analyze", "C" * 60 + "("], "chairdraw: '" + "C" * 39 + "…': read: SMILES"),
+        (["analyze", "CC1CCCCC1", "--temperature", "1e-322"], "chairdraw: usage: temperature must be a finite"),
     ],
 )
 def test_bad_input_exits_2_with_one_clear_message(argv, first_line, capsys):
@@ -145,3 +146,16 @@ def test_percent_boundaries():
     assert percent(0.9996) == ">99.9"
     assert percent(0.0004) == "<0.1"
     assert percent(0.5) == "50.0"
+
+
+def test_usage_errors_are_one_line(capsys):
+    with pytest.raises(SystemExit) as exc:
+        main(["analyze", "CC1CCCCC1", "--format", "pdb"])
+    assert exc.value.code == 2
+    err = capsys.readouterr().err
+    assert len(err.strip().splitlines()) == 1 and err.startswith("chairdraw: usage: ")
+
+
+def test_a_directory_is_not_read_as_smiles(tmp_path, capsys):
+    assert main(["analyze", str(tmp_path)]) == 2
+    assert "Is a directory" in capsys.readouterr().err

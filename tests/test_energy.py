@@ -630,3 +630,17 @@ def test_geminal_pair_of_equal_groups_is_not_flagged():
     ring = only_ring("CC1(C)CCCCC1")
     assert ring.degenerate
     assert not any("geminal" in w for w in ring.warnings)
+
+
+@pytest.mark.parametrize("temperature", ["abc", None, 10**400, 0, -3, float("nan"), 1e-322])
+def test_bad_temperatures_are_usage_errors(temperature):
+    with pytest.raises(chairdraw.UsageError):
+        chairdraw.analyze("CC1CCCCC1", temperature=temperature)
+
+
+def test_dative_bond_in_a_substituent_is_cut_by_rdkit_not_a_crash():
+    # an amine-borane on the ring: the group text written from the graph cannot be read back by
+    # RDKit, so the group is cut off with RDKit's FragmentOnBonds instead (and estimated)
+    ring = only_ring("N->BC1CCCCC1")
+    group = next(p for p in ring.chairs[0].positions if p.label not in ("H",))
+    assert group.estimated

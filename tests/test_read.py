@@ -841,3 +841,16 @@ def test_identity_smiles_keeps_the_enhanced_stereo_groups() -> None:
     assert analysis.smiles == expected and "&1:" in analysis.smiles
     assert analysis.stereo_meaning == "racemic"
     assert chairdraw.analyze("C[C@H]1CCCC[C@@H]1C").smiles == "C[C@H]1CCCC[C@@H]1C"
+
+
+def test_rdkit_molecules_are_sanitized_or_refused() -> None:
+    import chairdraw
+    from chairdraw.errors import InputError as _InputError
+
+    # an unsanitized molecule has no ring information: it must still give its ring
+    raw = Chem.MolFromSmiles("C[C@H]1CC[C@@H](O)CC1", sanitize=False)
+    assert len(chairdraw.analyze(raw).rings) == 1
+    with pytest.raises(_InputError, match="query"):
+        chairdraw.analyze(Chem.MolFromSmarts("C1CCCCC1"))
+    with pytest.raises(_InputError, match="cannot be sanitized"):
+        chairdraw.analyze(Chem.MolFromSmiles("C1CC(C)(C)(C)CC1", sanitize=False))

@@ -142,6 +142,10 @@ def test_cyclohexanone_carbonyl_at_1(smiles, carbonyl_locant, methyl_locant):
         # (half-chair or sofa rings, common practice)
         ("O=C1CCCCO1", ["lactone", "too flat"], 1),
         ("O=C1CCCCN1", ["lactam", "too flat"], 1),
+        ("C1CC[CH]CC1", ["radical"], 1),
+        ("C1CC[C+](C)CC1", ["carbocation"], 1),
+        ("C1CC[C-](C)CC1", ["carbanion"], 1),
+        ("C1CC[O+](C)CC1", ["has 3 bonds and hydrogens"], 1),
     ],
     ids=[
         "benzene",
@@ -155,6 +159,10 @@ def test_cyclohexanone_carbonyl_at_1(smiles, carbonyl_locant, methyl_locant):
         "sulfoxide",
         "valerolactone",
         "valerolactam",
+        "radical",
+        "carbocation",
+        "carbanion",
+        "oxonium",
     ],
 )
 def test_refusals_with_reasons(smiles, words, n_refused):
@@ -311,3 +319,10 @@ def test_ring_ammonium_does_not_take_the_free_amine_values():
     assert terms and all(t.value == pytest.approx(1.74) for t in terms)
     assert any("cyclohexane values are used" in w for w in ring.warnings)
     assert not any("twist-boat" in w for w in ring.warnings)
+
+
+def test_ring_without_carbon_is_named_from_its_lowest_locant():
+    # cyclo-S6 is a chair (common practice); its descriptor needs a reference atom that is not C
+    ring = only_ring("S1SSSSS1")
+    assert {c.name for c in ring.chairs} == {"1C4", "4C1"}
+    assert ring.degenerate

@@ -10,6 +10,7 @@ force-field energies (enthalpy-like), not free energies; compare them only with 
 from __future__ import annotations
 
 import math
+import time
 from dataclasses import dataclass, replace
 from typing import Any
 
@@ -28,6 +29,9 @@ RADIUS, HEIGHT = 1.446, 0.25  # ideal chair: C-C 1.53 A, ring angle ~110 deg, to
 # structure per chair left side chains (a phenyl's rotation) wherever the embedding put them, and
 # 1-methyl-1-phenylcyclohexane then came out 3.4 kcal/mol the wrong way
 SEEDS = (0xC0FFEE, 7, 2024, 11, 42, 99, 123, 314)
+BUDGET_S = 2.0  # per chair: no further seeds once a good structure is in hand and this time is spent
+GIVE_UP_S = 4.0  # per chair: no further seeds after this, good structure or not
+EMBED_TIMEOUT_S = 2  # RDKit's own limit on one embedding (seconds)
 CHAIR_THETA = 25.0  # degrees from 0 or 180: a chair; half-chairs sit near 50
 
 
@@ -84,12 +88,17 @@ def build_chair(mol: Chem.Mol, ring: ChairRing, chair: int, variant: str = "MMFF
         angle = -k * math.pi / 3  # clockwise seen from +z: +z is the top face
         coord_map[atom] = Point3D(RADIUS * math.cos(angle), RADIUS * math.sin(angle), HEIGHT if want[k] else -HEIGHT)
     best: ChairGeometry | None = None
+    start = time.monotonic()
     for seed in SEEDS:
+        spent = time.monotonic() - start
+        if spent > GIVE_UP_S or (best is not None and spent > BUDGET_S):
+            break
         params: Any = rdDistGeom.ETKDGv3()  # the RDKit stubs mistype its attributes
         params.randomSeed = seed
         params.useRandomCoords = True
         params.enforceChirality = True
         params.SetCoordMap(coord_map)
+        params.timeout = EMBED_TIMEOUT_S
         work = Chem.Mol(mh)
         try:
             if rdDistGeom.EmbedMolecule(work, params) < 0:
