@@ -20,7 +20,7 @@ from .conformers import ChairPair, position_key, tops_of
 from .energy import equilibrium, forcefield, tables
 from .energy.terms import ChairModel, Key
 from .errors import EnergyError, StereoError, UsageError
-from .faces import CCW, TOP, Slot, ring_slots
+from .faces import CCW, TOP, Slot, forget_stereo_perception, ring_slots
 from .molgraph import MolGraph
 from .read import Structure, read
 from .results import Analysis, Centre, Configuration, RingResult
@@ -105,7 +105,7 @@ class Analyzer:
         self, mol: Chem.Mol, graph: MolGraph, ring: ChairRing, status: dict[int, str], stereo_groups
     ) -> list[RingResult]:
         base_slots = ring_slots(mol, ring)
-        groups = _groups(mol, graph, base_slots)
+        groups = _groups(mol, graph, base_slots, ring.ammonium)
         model = ChairModel(ring, groups, self.solvent)
         return [
             self._with_forcefield(m, ring, r)
@@ -208,6 +208,7 @@ def _with_tags(mol: Chem.Mol, tags: dict[int, Chem.ChiralType]) -> Chem.Mol:
     out = Chem.Mol(mol)
     for idx, tag in tags.items():
         out.GetAtomWithIdx(idx).SetChiralTag(tag)
+    forget_stereo_perception(out)  # the old tags' stereo perception must not outlive them
     return out
 
 
@@ -255,7 +256,9 @@ def relative_label(ring: ChairRing, reference: list[tuple[int, int]], tops: Sequ
     return label
 
 
-def _groups(mol: Chem.Mol, graph: MolGraph, slots: tuple[Slot, ...]) -> dict[Key, Group]:
+def _groups(
+    mol: Chem.Mol, graph: MolGraph, slots: tuple[Slot, ...], ammonium: tuple[int, ...] = ()
+) -> dict[Key, Group]:
     """The Group of every position that carries one (substituents, D/T, the H of a ring N-H)."""
     bonds = [(s.ring_atom, s.atom) for s in slots if s.atom is not None and s.is_group and s.element not in ("D", "T")]
     found = substituent_groups(mol, graph, bonds)  # type: ignore[arg-type]
@@ -265,8 +268,8 @@ def _groups(mol: Chem.Mol, graph: MolGraph, slots: tuple[Slot, ...]) -> dict[Key
             out[position_key(s)] = recognise(hydrogen_isotope_fragment(s.element))
         elif s.is_group and s.atom is not None:
             out[position_key(s)] = found[(s.ring_atom, s.atom)]
-        elif s.element == "H" and s.inverting:
-            out[position_key(s)] = _N_H
+        elif s.element == "H" and s.inverting and s.ring_index not in ammonium:
+            out[position_key(s)] = _N_H  # (an ammonium N-H has no lone pair to trade places with)
     return out
 
 

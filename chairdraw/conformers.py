@@ -49,7 +49,7 @@ class ChairPair:
         self.entry_slot = [at[n] for n in range(len(model.entries))]
         self.labels = {e.key: (e.group.label, bool(e.group.estimated_as)) for e in model.entries}
         self.ring_warnings = model.ring_warnings()
-        self.trigonal_warnings = _trigonal_warnings(ring)
+        self.trigonal_warnings = _trigonal_warnings(ring, {e.index for e in model.entries if e.group.pair_class != "H"})
         self.names = (chair_name(ring, 0), chair_name(ring, 1))
         self.up_atoms = tuple(tuple(a for k, a in enumerate(ring.atoms) if points_up(chair, k)) for chair in (0, 1))
         self.trigonal_atoms = tuple(ring.atoms[k] for k in ring.trigonal)
@@ -154,12 +154,15 @@ def tops_of(slots: tuple[Slot, ...]) -> Tops:
     return tuple(None if s.face is None else s.face == TOP for s in slots)
 
 
-def _trigonal_warnings(ring: ChairRing) -> list[str]:
+def _trigonal_warnings(ring: ChairRing, substituted: set[int]) -> list[str]:
     """What the model leaves out next to flat ring atoms: a C=X carbon, or a ring N/O/S that is
-    planar (amide, carbamate, N-aryl)."""
+    planar (amide, carbamate, N-aryl) with a group on a neighbouring ring atom (``substituted``:
+    ring indices that carry one)."""
     out = []
     carbons = [ring.locants[k] for k in ring.trigonal if ring.elements[k] == "C"]
-    planar = [ring.locants[k] for k in ring.trigonal if ring.elements[k] != "C"]
+    planar = [
+        ring.locants[k] for k in ring.trigonal if ring.elements[k] != "C" and {(k - 1) % 6, (k + 1) % 6} & substituted
+    ]
     if carbons:
         out.append(
             f"trigonal ring atom at {', '.join(carbons)}: cyclohexane A-values are used beside it "

@@ -150,7 +150,25 @@ def set_faces(mol: Chem.Mol, ring: ChairRing, faces: Mapping[int, str]) -> Chem.
         effective = CCW if s0_top else CW
         tag = effective if parity(order, [prev, nxt, s0, s1]) == 0 else (CW if effective == CCW else CCW)
         atom.SetChiralTag(tag)
+    forget_stereo_perception(out)
     return out
+
+
+_PERCEIVED = ("_ringStereoAtoms", "_ringStereoOtherAtom", "_ringStereochemCand", "_ChiralityPossible", "_CIPCode")
+
+
+def forget_stereo_perception(mol: Chem.Mol) -> None:
+    """Drop what RDKit perceived on the atoms from the tags they had before they were rewritten:
+    the SMILES writer reads the ring-stereo partners stored there ('_ringStereoAtoms') and would
+    write the old relation of a 1,4-pair. The molecule's own "perceived" mark stays: a fresh
+    perception in the new mode writes SMILES of some inositol configurations that read back as
+    another isomer (seen with RDKit 2026.09), while the tags themselves are right."""
+    for i in range(mol.GetNumAtoms()):
+        atom = mol.GetAtomWithIdx(i)
+        for prop in _PERCEIVED:
+            if atom.HasProp(prop):
+                atom.ClearProp(prop)
+    # (the molecule keeps its "stereo perceived" mark, so the writer takes the tags as they are)
 
 
 def mirror(mol: Chem.Mol) -> Chem.Mol:

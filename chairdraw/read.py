@@ -217,7 +217,8 @@ def _read_smiles(text: str, source: str, record: str | None, cx: bool) -> Struct
 def _dropped_marks(smiles: str, mol: Chem.Mol) -> int:
     """How many '@'/'@@' marks of the SMILES left no tetrahedral tag (RDKit removes marks on atoms
     that are not stereocentres as written)."""
-    marks = len(re.findall(r"@@?", smiles))
+    # '@', '@@', '@TH1', '@TH2' are tetrahedral; '@SP1', '@TB5', '@OH12', '@AL1' are not
+    marks = sum(1 for m in re.findall(r"@(@|TH\d|AL\d|SP\d|TB\d+|OH\d+)?", smiles) if m in ("", "@", "TH1", "TH2"))
     if not marks:
         return 0
     atom = mol.GetAtomWithIdx

@@ -225,7 +225,10 @@ def _refusal(
         return f"{len(trigonal)} trigonal ring atoms: too flat for the chair model"
     if len(trigonal) == 2 and (trigonal[1] - trigonal[0]) % 6 in (1, 5):
         if any(facts[ring[k]].planar for k in trigonal):
-            return "ester or amide in the ring (lactone, lactam): two neighbouring planar ring atoms, too flat for the chair model"
+            return (
+                "conjugated ring heteroatom beside a trigonal ring atom (lactone, lactam, enol ether, enamine): "
+                "two neighbouring planar ring atoms, too flat for the chair model"
+            )
         return "two neighbouring trigonal ring atoms: too flat for the chair model"
     return None
 

@@ -88,7 +88,9 @@ def _compiled_classes() -> tuple[tuple[tables.SubstituentClass, Chem.Mol], ...]:
 
 
 def _rows_by_label(label: str) -> tuple[tables.AValue, ...]:
-    return tuple(r for r in tables.avalues() if r.label == label)
+    """The general rows of a class's representative: its ring-position rows were measured or
+    built for that group itself, not for the groups estimated by it."""
+    return tuple(r for r in tables.avalues() if r.label == label and r.context is None)
 
 
 @cache

@@ -122,6 +122,10 @@ def test_centres_in_separate_stereo_groups_are_not_related(extension, configurat
     # InChI of the two hand-written diastereomers, not from chairdraw
     analysis = chairdraw.analyze(f"{TRANS_12} {extension}")
     assert len(analysis.rings) == configurations
+    for ring in analysis.rings:  # each configuration's SMILES names the same isomer as its InChI
+        if ring.configuration:
+            c = ring.configuration
+            assert Chem.MolToInchi(Chem.MolFromSmiles(c.smiles)) == c.inchi
     found = {_relative_inchi(r.configuration.inchi if r.configuration else analysis.inchi) for r in analysis.rings}
     wanted = {_relative_inchi(Chem.MolToInchi(Chem.MolFromSmiles(s))) for s in (TRANS_12, CIS_12)}
     if configurations == 2:
@@ -141,3 +145,25 @@ def test_a_group_of_two_centres_keeps_their_relation_against_a_third():
     other = "C[C@H]1C[C@@H](C)C[C@@H](C)C1"
     wanted = {_relative_inchi(Chem.MolToInchi(Chem.MolFromSmiles(s))) for s in (smiles, other)}
     assert {_relative_inchi(r.configuration.inchi) for r in analysis.rings} == wanted
+
+
+def test_configuration_smiles_follow_the_new_tags_in_a_1_4_ring():
+    # the tags written for a configuration must not keep the perception of the input's tags: the
+    # trans configuration of a cis input must be written trans (RDKit's InChI of the text decides)
+    analysis = chairdraw.analyze("C[C@H]1CC[C@@H](C)CC1 |&1:1,&2:4|")
+    assert len(analysis.rings) == 2
+    for ring in analysis.rings:
+        c = ring.configuration
+        assert c is not None
+        assert Chem.MolToInchi(Chem.MolFromSmiles(c.smiles)) == c.inchi
+    assert len({r.configuration.smiles for r in analysis.rings}) == 2
+
+
+@pytest.mark.parametrize("smiles, why", CASES + [("C[C@H]1CC[C@@H](C)CC1 |&1:1,&2:4|", "1,4-pair in two groups")])
+def test_every_configuration_smiles_reads_back_as_its_inchi(smiles, why):
+    # RDKit's SMILES writer keeps stereo it perceived earlier: a configuration's SMILES must name
+    # the isomer its own tags make (RDKit's InChI of both is the judge)
+    for ring in chairdraw.analyze(smiles).rings:
+        c = ring.configuration
+        assert c is not None
+        assert Chem.MolToInchi(Chem.MolFromSmiles(c.smiles)) == c.inchi, (why, c.label, c.smiles)

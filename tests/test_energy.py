@@ -644,3 +644,27 @@ def test_dative_bond_in_a_substituent_is_cut_by_rdkit_not_a_crash():
     ring = only_ring("N->BC1CCCCC1")
     group = next(p for p in ring.chairs[0].positions if p.label not in ("H",))
     assert group.estimated
+
+
+def test_class_estimate_states_the_value_it_uses():
+    # a CH2OMe estimated by class takes its representative's general value, and says which
+    import re
+
+    for solvent in ("aprotic", "protic"):
+        ring = only_ring("COC[C@@H]1CCCO[C@@H]1C", solvent=solvent)
+        said = [w for w in ring.warnings if "estimated as" in w]
+        assert said
+        value = float(re.search(r"([0-9.]+) kcal/mol\)", said[0]).group(1))
+        used = [t.value for c in ring.chairs for t in c.terms if t.kind == "a-value" and t.estimated]
+        assert used and all(v == pytest.approx(value) for v in used)
+
+
+def test_geminal_groups_with_the_same_formula_but_different_structure_are_flagged():
+    # CH2CH2OH and CH2OMe share the formula label C2H5O but are different groups
+    ring = only_ring("OCCC1(COC)CCCCC1")
+    assert any("not additive" in w for w in ring.warnings)
+
+
+def test_no_gauche_warning_for_hydrogen_isotopes_or_n_h():
+    for smiles in ("C[C@@H]1CCCCN1", "[2H][C@@H]1CCCC[C@H]1C"):
+        assert not any("gauche value" in w for w in only_ring(smiles).warnings)

@@ -854,3 +854,7 @@ def test_rdkit_molecules_are_sanitized_or_refused() -> None:
         chairdraw.analyze(Chem.MolFromSmarts("C1CCCCC1"))
     with pytest.raises(_InputError, match="cannot be sanitized"):
         chairdraw.analyze(Chem.MolFromSmiles("C1CC(C)(C)(C)CC1", sanitize=False))
+
+
+def test_non_tetrahedral_marks_are_not_counted_as_dropped() -> None:
+    assert not any("dropped" in n for n in read("F[Pt@SP1](Cl)(Br)I.C1CCCCC1").notes)

@@ -142,6 +142,7 @@ def test_cyclohexanone_carbonyl_at_1(smiles, carbonyl_locant, methyl_locant):
         # (half-chair or sofa rings, common practice)
         ("O=C1CCCCO1", ["lactone", "too flat"], 1),
         ("O=C1CCCCN1", ["lactam", "too flat"], 1),
+        ("C=C1CCCCO1", ["enol ether", "too flat"], 1),
         ("C1CC[CH]CC1", ["radical"], 1),
         ("C1CC[C+](C)CC1", ["carbocation"], 1),
         ("C1CC[C-](C)CC1", ["carbanion"], 1),
@@ -159,6 +160,7 @@ def test_cyclohexanone_carbonyl_at_1(smiles, carbonyl_locant, methyl_locant):
         "sulfoxide",
         "valerolactone",
         "valerolactam",
+        "methylene-oxane",
         "radical",
         "carbocation",
         "carbanion",
@@ -297,6 +299,11 @@ def test_planar_ring_nitrogen_is_trigonal_and_the_free_amine_values_are_not_used
     assert terms and all("eliel1980" not in t.sources for t in terms)
 
 
+def test_no_a13_warning_without_a_group_beside_the_planar_nitrogen():
+    ring = only_ring("CC(C)(C)OC(=O)N1CC[C@@H](C)CC1")
+    assert not any("A(1,3) strain" in w for w in ring.warnings)
+
+
 @pytest.mark.parametrize(
     "smiles, kind",
     [
@@ -326,3 +333,9 @@ def test_ring_without_carbon_is_named_from_its_lowest_locant():
     ring = only_ring("S1SSSSS1")
     assert {c.name for c in ring.chairs} == {"1C4", "4C1"}
     assert ring.degenerate
+
+
+def test_ammonium_n_h_has_no_lone_pair_value():
+    # the piperidine N-H value (0.4, against the lone pair) cannot apply to R2NH2+ / R3NH+
+    ring = only_ring("C[NH+]1CCCCC1")
+    assert all("piperidine1970" not in t.sources for c in ring.chairs for t in c.terms)

@@ -289,6 +289,8 @@ class ChairModel:
         a, b = self.entries[n], self.entries[m]
         row = _pair("gauche", a.group.pair_class, b.group.pair_class)
         if row is None:
+            if "H" in (a.group.pair_class, b.group.pair_class):  # an N-H, D or T: nothing to miss
+                return _Pair(n, m, False)
             warning = f"no published gauche value for {self._where(a, b)}; only the A-values are counted"
             return _Pair(n, m, False, gauche_warning=warning)
 
@@ -322,7 +324,7 @@ class ChairModel:
                 g = e.group
                 if not g.estimated_as:
                     continue
-                value = g.rows[0].value("aprotic")
+                value = g.rows[0].value(self.solvent)
                 if g.estimated_as == "unclassified":
                     out.append(
                         f"{g.label} at {where}: no A-value and no class; a placeholder of {value:g} kcal/mol is used"
@@ -333,7 +335,7 @@ class ChairModel:
                         f"(value of {g.rows[0].label}, {value:g} kcal/mol)"
                     )
             # two equal groups: one is axial in each chair, so whatever the pair costs cancels in the ΔG
-            if len(here) == 2 and self.ring.elements[i] == "C" and here[0].group.label != here[1].group.label:
+            if len(here) == 2 and self.ring.elements[i] == "C" and here[0].group.fragment != here[1].group.fragment:
                 a, b = here
                 if frozenset((a.key, b.key)) in self.measured_geminal:
                     out.append(
