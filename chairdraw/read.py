@@ -261,7 +261,23 @@ def _read_inchi(text: str, source: str, record: str | None) -> Structure:
         useful = [m for m in messages if len(m.strip(" :")) > 8 and not m.strip().endswith(":")]
         reason = "; ".join(useful) or "not a valid InChI (the InChI library could not read it)"
         raise InputError(f"InChI: {reason}", record=record or (source if source != _ARGUMENT else None))
-    return Structure(mol=mol, format="inchi", source=source, record=record)
+    notes = []
+    if not inchi.startswith("InChI=1S/"):
+        notes.append("a non-standard InChI: read as written, its options are not checked")
+    # the /s layer says what the stereo means: 1 absolute, 2 relative, 3 racemic; RDKit reads the
+    # centres and drops the meaning, which an enhanced-stereo group over them keeps
+    meaning = re.search(r"/s([23])(?:/|$)", inchi)
+    if meaning:
+        atom = mol.GetAtomWithIdx
+        tagged = [i for i in range(mol.GetNumAtoms()) if atom(i).GetChiralTag() in _TETRAHEDRAL]
+        if tagged:
+            kind = Chem.StereoGroupType.STEREO_OR if meaning.group(1) == "2" else Chem.StereoGroupType.STEREO_AND
+            editable = Chem.RWMol(mol)
+            editable.SetStereoGroups([Chem.CreateStereoGroup(kind, editable, tagged)])
+            mol = editable.GetMol()
+    return Structure(
+        mol=mol, format="inchi", source=source, record=record, notes=tuple(notes), stereo_groups=_groups(mol)
+    )
 
 
 # --- molfile and SDF -----------------------------------------------------------------------------

@@ -858,3 +858,21 @@ def test_rdkit_molecules_are_sanitized_or_refused() -> None:
 
 def test_non_tetrahedral_marks_are_not_counted_as_dropped() -> None:
     assert not any("dropped" in n for n in read("F[Pt@SP1](Cl)(Br)I.C1CCCCC1").notes)
+
+
+@pytest.mark.parametrize(
+    "layer, meaning",
+    [("/m0/s1", "absolute"), ("/s2", "relative"), ("/s3", "racemic")],
+)
+def test_inchi_stereo_layer_sets_the_meaning(layer, meaning) -> None:
+    # standard InChI /s layer (InChI Technical Manual): 1 absolute, 2 relative, 3 racemic
+    inchi = "InChI=1S/C8H16/c1-7-5-3-4-6-8(7)2/h7-8H,3-6H2,1-2H3/t7-,8-" + layer
+    structure = read(inchi)
+    assert structure.stereo_meaning == meaning
+    # the centres themselves are kept: RDKit's InChI of the structure has the same /t layer
+    assert Chem.MolToInchi(structure.mol).split("/t")[1].split("/")[0] == "7-,8-"
+
+
+def test_non_standard_inchi_is_noted() -> None:
+    structure = read("InChI=1/C8H16/c1-7-5-3-4-6-8(7)2/h7-8H,3-6H2,1-2H3/t7-,8-/s3")
+    assert any("non-standard InChI" in n for n in structure.notes)
