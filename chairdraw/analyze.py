@@ -118,15 +118,15 @@ class Analyzer:
             return result
         if isinstance(mol, Configuration):
             mol = mol.molecule
-        heavy = mol.GetNumHeavyAtoms()
+        heavy = forcefield.fragment_size(mol, ring)
         if self.forcefield == "auto" and heavy > AUTO_FORCEFIELD_MAX_HEAVY:
             skipped = (
                 f"MMFF94 comparison skipped: {heavy} heavy atoms (the automatic check stops at "
-                f"{AUTO_FORCEFIELD_MAX_HEAVY}; ask for it with forcefield 'always')"
+                f"{AUTO_FORCEFIELD_MAX_HEAVY}; ask for it with forcefield 'always', which is not time-limited)"
             )
             return _with(result, warnings=result.warnings + (skipped,))
         try:
-            energies = forcefield.chair_energies(mol, ring)
+            energies = forcefield.chair_energies(mol, ring, time_boxed=self.forcefield == "auto")
         except EnergyError as exc:
             return _with(result, warnings=result.warnings + (f"MMFF94 comparison failed: {exc.message}",))
         warnings = result.warnings

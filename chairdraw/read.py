@@ -95,7 +95,8 @@ def _checked_copy(mol: Chem.Mol, record: str | None) -> Chem.Mol:
     """A sanitized copy of a molecule handed over from RDKit: an unsanitized one has no ring
     information (every ring would be missed without a word), a query (SMARTS) one is no structure."""
     atom = mol.GetAtomWithIdx
-    if any(atom(i).HasQuery() for i in range(mol.GetNumAtoms())):
+    # R-group and '*' atoms carry queries in real structures too; a query on an element is SMARTS
+    if any(atom(i).HasQuery() and atom(i).GetAtomicNum() != 0 for i in range(mol.GetNumAtoms())):
         raise InputError("the RDKit molecule is a query (SMARTS), not a structure", record=record)
     copy = Chem.Mol(mol)
     try:
@@ -157,7 +158,8 @@ def _looks_like_path(text: str) -> bool:
     # structure-file suffix makes a path
     if text.startswith("InChI="):
         return False
-    return os.path.exists(text) or text.lower().endswith(_SUFFIXES)
+    # a directory only when written as a path: 'OC' is methanol even beside a directory named OC
+    return os.path.isfile(text) or text.lower().endswith(_SUFFIXES) or (os.sep in text and os.path.isdir(text))
 
 
 def _format_from_suffix(path: Path) -> str | None:
@@ -271,9 +273,12 @@ def _read_inchi(text: str, source: str, record: str | None) -> Structure:
         atom = mol.GetAtomWithIdx
         tagged = [i for i in range(mol.GetNumAtoms()) if atom(i).GetChiralTag() in _TETRAHEDRAL]
         if tagged:
+            # one group per component: the InChI relates the centres of one component only
             kind = Chem.StereoGroupType.STEREO_OR if meaning.group(1) == "2" else Chem.StereoGroupType.STEREO_AND
             editable = Chem.RWMol(mol)
-            editable.SetStereoGroups([Chem.CreateStereoGroup(kind, editable, tagged)])
+            pieces = Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False)
+            groups = [[i for i in tagged if i in piece] for piece in pieces]
+            editable.SetStereoGroups([Chem.CreateStereoGroup(kind, editable, g) for g in groups if g])
             mol = editable.GetMol()
     return Structure(
         mol=mol, format="inchi", source=source, record=record, notes=tuple(notes), stereo_groups=_groups(mol)

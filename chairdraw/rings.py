@@ -247,6 +247,11 @@ def _not_tetrahedral(graph: MolGraph, i: int, f: _Facts) -> str | None:
     if f.trigonal:
         return None  # a C=O carbon or a planar N has three
     total = f.degree + graph.hydrogens(i)
+    if f.symbol == "N" and total == 4 and charge <= 0:
+        # a dative bond from the nitrogen's lone pair (N->O, N->metal) leaves it tetrahedral
+        bonds = graph.mol.GetAtomWithIdx(i).GetBonds()
+        if any(b.GetBondType() == Chem.BondType.DATIVE and b.GetBeginAtomIdx() == i for b in bonds):
+            return None
     if total not in _BONDS_AND_H[f.symbol] or (f.symbol == "N" and total == 4 and charge <= 0):
         return f"({f.symbol}) has {total} bonds and hydrogens"
     return None

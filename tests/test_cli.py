@@ -159,3 +159,10 @@ def test_usage_errors_are_one_line(capsys):
 def test_a_directory_is_not_read_as_smiles(tmp_path, capsys):
     assert main(["analyze", str(tmp_path)]) == 2
     assert "Is a directory" in capsys.readouterr().err
+
+
+def test_a_smiles_beside_a_directory_of_that_name_is_still_a_smiles(tmp_path, monkeypatch, capsys):
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "OC").mkdir()
+    assert main(["analyze", "OC", "--json"]) == 0
+    assert json.loads(capsys.readouterr().out)["smiles"] == "CO"

@@ -668,3 +668,10 @@ def test_geminal_groups_with_the_same_formula_but_different_structure_are_flagge
 def test_no_gauche_warning_for_hydrogen_isotopes_or_n_h():
     for smiles in ("C[C@@H]1CCCCN1", "[2H][C@@H]1CCCC[C@H]1C"):
         assert not any("gauche value" in w for w in only_ring(smiles).warnings)
+
+
+def test_large_geminal_groups_with_the_same_formula_are_still_flagged():
+    # n-C20H41 and a branched C20H41 are named by formula only (too large for the table) but take
+    # different class values: the pair is not two equal groups
+    ring = only_ring("C" * 20 + "C1(C(C)" + "C" * 18 + ")CCCCC1")
+    assert any("not additive" in w for w in ring.warnings)

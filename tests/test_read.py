@@ -876,3 +876,18 @@ def test_inchi_stereo_layer_sets_the_meaning(layer, meaning) -> None:
 def test_non_standard_inchi_is_noted() -> None:
     structure = read("InChI=1/C8H16/c1-7-5-3-4-6-8(7)2/h7-8H,3-6H2,1-2H3/t7-,8-/s3")
     assert any("non-standard InChI" in n for n in structure.notes)
+
+
+def test_rgroup_atoms_are_not_taken_for_a_query() -> None:
+    import chairdraw
+
+    # '*' / R-group atoms carry queries in RDKit; the structure around them is still a structure
+    mol = Chem.MolFromSmiles("*C1CCCCC1 |$Q_e;;;;;;$|")
+    assert len(chairdraw.analyze(mol).rings) == 1
+
+
+def test_inchi_relative_layer_groups_each_component_apart() -> None:
+    # two components of a /s2 InChI are each relative on their own: one OR group per component
+    structure = read("InChI=1/2C7H14O/c2*1-6-3-2-4-7(8)5-6/h2*6-8H,2-5H2,1H3/t2*6-,7-/s2")
+    assert [g.kind for g in structure.stereo_groups] == ["or", "or"]
+    assert len({frozenset(g.atoms) for g in structure.stereo_groups}) == 2

@@ -339,3 +339,10 @@ def test_ammonium_n_h_has_no_lone_pair_value():
     # the piperidine N-H value (0.4, against the lone pair) cannot apply to R2NH2+ / R3NH+
     ring = only_ring("C[NH+]1CCCCC1")
     assert all("piperidine1970" not in t.sources for c in ring.chairs for t in c.terms)
+
+
+@pytest.mark.parametrize("smiles", ["CN1(->O)CCCCC1", "C[N+]1([O-])CCCCC1", "C1CCN(->[Pt])CC1"])
+def test_ring_nitrogen_with_a_dative_bond_stays_a_chair_atom(smiles):
+    # an N-oxide written with a dative bond or charge-separated, and an N bound to a metal, are
+    # tetrahedral ring nitrogens (common practice)
+    assert len(rings_of(smiles).rings) == 1

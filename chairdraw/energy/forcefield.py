@@ -72,8 +72,12 @@ def up_pattern(points: np.ndarray) -> tuple[bool, ...]:
     return tuple(bool(v > 0) for v in z)
 
 
-def build_chair(mol: Chem.Mol, ring: ChairRing, chair: int, variant: str = "MMFF94") -> ChairGeometry:
+def build_chair(
+    mol: Chem.Mol, ring: ChairRing, chair: int, variant: str = "MMFF94", time_boxed: bool = False
+) -> ChairGeometry:
     """The lowest MMFF94-minimised structure of ``chair`` over the seeds; EnergyError if none keeps it.
+    ``time_boxed`` (the automatic check) stops early (BUDGET_S, GIVE_UP_S) and limits each
+    embedding (EMBED_TIMEOUT_S); a check asked for runs every seed to the end.
 
     Faces are taken from ``ring_slots`` and written back as chiral tags on every substituted ring
     atom, stereocentre or not, so that the embedding puts each group on the same face as the
@@ -91,14 +95,15 @@ def build_chair(mol: Chem.Mol, ring: ChairRing, chair: int, variant: str = "MMFF
     start = time.monotonic()
     for seed in SEEDS:
         spent = time.monotonic() - start
-        if spent > GIVE_UP_S or (best is not None and spent > BUDGET_S):
+        if time_boxed and (spent > GIVE_UP_S or (best is not None and spent > BUDGET_S)):
             break
         params: Any = rdDistGeom.ETKDGv3()  # the RDKit stubs mistype its attributes
         params.randomSeed = seed
         params.useRandomCoords = True
         params.enforceChirality = True
         params.SetCoordMap(coord_map)
-        params.timeout = EMBED_TIMEOUT_S
+        if time_boxed:
+            params.timeout = EMBED_TIMEOUT_S
         work = Chem.Mol(mh)
         try:
             if rdDistGeom.EmbedMolecule(work, params) < 0:
@@ -120,8 +125,18 @@ def build_chair(mol: Chem.Mol, ring: ChairRing, chair: int, variant: str = "MMFF
         if best is None or energy < best.energy_kcal_mol:
             best = ChairGeometry(chair, energy, theta, q, work)
     if best is None:
-        raise EnergyError(f"MMFF94 did not keep chair {chair} of the ring of atoms {list(ring.atoms)}")
+        limit = f" within the automatic check's {GIVE_UP_S:g} s" if time_boxed else ""
+        raise EnergyError(
+            f"no embedding kept chair {chair} of the ring of atoms {list(ring.atoms)}{limit} "
+            f"({time.monotonic() - start:.1f} s)"
+        )
     return best
+
+
+def fragment_size(mol: Chem.Mol, ring: ChairRing) -> int:
+    """Heavy atoms of the piece that holds the ring (what the embedding sees)."""
+    piece = next(p for p in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False) if ring.atoms[0] in p)
+    return sum(1 for a in piece if mol.GetAtomWithIdx(a).GetAtomicNum() > 1)
 
 
 def _ring_fragment(mol: Chem.Mol, ring: ChairRing) -> tuple[Chem.Mol, ChairRing]:
@@ -151,9 +166,11 @@ def _faces_hold(mol: Chem.Mol, ring: ChairRing, faces: dict, pts: np.ndarray) ->
     return True
 
 
-def chair_energies(mol: Chem.Mol, ring: ChairRing, variant: str = "MMFF94") -> tuple[float, float]:
+def chair_energies(
+    mol: Chem.Mol, ring: ChairRing, variant: str = "MMFF94", time_boxed: bool = False
+) -> tuple[float, float]:
     """MMFF94 energies (kcal/mol) of chair 0 and chair 1, relative to the lower one."""
-    e0 = build_chair(mol, ring, 0, variant).energy_kcal_mol
-    e1 = build_chair(mol, ring, 1, variant).energy_kcal_mol
+    e0 = build_chair(mol, ring, 0, variant, time_boxed).energy_kcal_mol
+    e1 = build_chair(mol, ring, 1, variant, time_boxed).energy_kcal_mol
     low = min(e0, e1)
     return e0 - low, e1 - low

@@ -335,7 +335,9 @@ class ChairModel:
                         f"(value of {g.rows[0].label}, {value:g} kcal/mol)"
                     )
             # two equal groups: one is axial in each chair, so whatever the pair costs cancels in the ΔG
-            if len(here) == 2 and self.ring.elements[i] == "C" and here[0].group.fragment != here[1].group.fragment:
+            # (large groups are named by formula only, so their values are compared too)
+            same = here[0].group.fragment == here[-1].group.fragment and here[0].value == here[-1].value
+            if len(here) == 2 and self.ring.elements[i] == "C" and not same:
                 a, b = here
                 if frozenset((a.key, b.key)) in self.measured_geminal:
                     out.append(
