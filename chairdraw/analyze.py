@@ -16,11 +16,11 @@ from rdkit import Chem
 from . import _rdkit
 from .chairs import AXIAL
 from .configurations import enumerate_faces, faces_of, stereo_units
-from .conformers import ChairPair, position_key, tops_of
+from .conformers import ChairPair, position_key
 from .energy import equilibrium, forcefield, tables
 from .energy.terms import ChairModel, Key
 from .errors import EnergyError, StereoError, UsageError
-from .faces import CCW, TOP, Slot, forget_stereo_perception, ring_slots
+from .faces import CCW, TOP, Slot, forget_stereo_perception, ring_slots, tops_of
 from .molgraph import MolGraph
 from .read import Structure, read
 from .results import Analysis, Centre, Configuration, RingResult
@@ -152,7 +152,9 @@ class Analyzer:
             stereo = tuple(Centre(a, loc[a], "specified") for a in centres)
             return [(mol, chairs.build(tops_of(base_slots), stereo))]
         if len(units) > MAX_OPEN_CENTRES:
-            raise StereoError(f"{len(open_)} unspecified centres in one ring: too many to enumerate")
+            raise StereoError(
+                f"{len(units)} ring stereocentres or stereo groups without a stated relation: too many to enumerate"
+            )
         if len(centres) == 1:
             fixed = _with_tags(mol, {open_[0]: CCW})
             stereo = (Centre(open_[0], loc[open_[0]], f"{status[open_[0]]}, one enantiomer analysed"),)

@@ -36,9 +36,14 @@ def points_up(chair: int, ring_index: int) -> bool:
 def axial_and_top(chair: int, slot: Slot, chosen_axial: bool = False) -> tuple[bool, bool]:
     """(axial, on the top face) of a position in ``chair``. A fixed face is axial where its atom
     points that way; an inverting position's face follows from whether it was chosen axial."""
-    up = points_up(chair, slot.ring_index)
-    if slot.face is not None:
-        top = slot.face == TOP
+    return position_rule(chair, slot.ring_index, slot.face, chosen_axial)
+
+
+def position_rule(chair: int, ring_index: int, face: str | None, chosen_axial: bool = False) -> tuple[bool, bool]:
+    """``axial_and_top`` for a ring index and a face (None: inverting) instead of a slot."""
+    up = points_up(chair, ring_index)
+    if face is not None:
+        top = face == TOP
         return top == up, top
     return chosen_axial, chosen_axial == up
 

@@ -16,7 +16,7 @@ from collections.abc import Mapping, Sequence
 from rdkit import Chem
 
 from ._rdkit import items
-from .faces import BOTTOM, TOP, Slot
+from .faces import BOTTOM, TOP, Slot, tops_of
 from .rings import ChairRing
 
 
@@ -112,7 +112,7 @@ def enumerate_faces(
 ) -> list[tuple[bool | None, ...]]:
     """Distinct face assignments of the ring got by turning over the faces of each unit of
     stereocentres (``stereo_units``; the other centres keep theirs), each as the face of every
-    slot (True top, False bottom, None inverting: see ``conformers.tops_of``)."""
+    slot (True top, False bottom, None inverting: see ``faces.tops_of``)."""
     symmetries, ranks_all = _symmetries_and_ranks(mol, ring)
     ranks: dict[int | None, int] = {a: r for a, r in enumerate(ranks_all)}
     principal = _principal(slots, ranks)
@@ -120,7 +120,7 @@ def enumerate_faces(
     unit_index = [[ring.atoms.index(a) for a in unit] for unit in units]
     # the slots whose faces turning a unit over turns over
     turned = [[j for j, s in enumerate(slots) if s.ring_index in index and s.face is not None] for index in unit_index]
-    base = [None if s.face is None else s.face == TOP for s in slots]
+    base = list(tops_of(slots))
     base_pattern = [0] * 6
     for i, j in principal.items():
         base_pattern[i] = 1 if base[j] else 2

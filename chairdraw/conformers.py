@@ -10,14 +10,13 @@ from __future__ import annotations
 from collections.abc import Sequence
 from typing import cast
 
-from .chairs import AXIAL, EQUATORIAL, chair_name, inverting_choices, points_up
+from .chairs import AXIAL, EQUATORIAL, chair_name, inverting_choices, points_up, position_rule
 from .energy import equilibrium
 from .energy.terms import NO_POSITION_VALUE, ChairModel, Key, Term
-from .faces import BOTTOM, TOP, Slot
+from .faces import BOTTOM, TOP, Slot, Tops
 from .results import Centre, Chair, Configuration, Position, RingResult
 from .rings import ChairRing
 
-Tops = Sequence["bool | None"]  # per slot: True top face, False bottom, None inverting
 # a single interaction this large in both chairs (an axial t-Bu-size group, a syn-diaxial pair of
 # two groups larger than H/Me) makes a twist-boat compete: axial t-Bu-cyclohexane and its twist-boat
 # are close (Wiberg 1999); cis-1,4-di-t-Bu-cyclohexane is mostly twist-boat (Gill 2005); anti-1,3-diol
@@ -53,8 +52,17 @@ class ChairPair:
         self.names = (chair_name(ring, 0), chair_name(ring, 1))
         self.up_atoms = tuple(tuple(a for k, a in enumerate(ring.atoms) if points_up(chair, k)) for chair in (0, 1))
         self.trigonal_atoms = tuple(ring.atoms[k] for k in ring.trigonal)
-        # whether each slot's ring atom points up (towards the top face), in chair 0 and in chair 1
-        self.up = [[points_up(chair, s.ring_index) for s in slots] for chair in (0, 1)]
+        # the axial/face rule (chairs.position_rule, which chairs.place uses too), read once per ring for every slot, chair and
+        # face: whether the slot is axial with its group on the [bottom, top] face, and for an
+        # inverting slot the face it takes when [not chosen, chosen] axial
+        self.axial_at = [
+            [tuple(position_rule(chair, s.ring_index, face)[0] for face in (BOTTOM, TOP)) for s in slots]
+            for chair in (0, 1)
+        ]
+        self.top_when = [
+            [tuple(position_rule(chair, s.ring_index, None, chosen)[1] for chosen in (False, True)) for s in slots]
+            for chair in (0, 1)
+        ]
         # the ways of putting one position of each inverting ring atom axial, as slot numbers
         self.choices = [frozenset(slots.index(s) for s in choice.values()) for choice in inverting_choices(slots)]
         self.inverting = [j for j, s in enumerate(slots) if s.face is None]
@@ -112,14 +120,13 @@ class ChairPair:
     def _chair(self, chair: int, tops: Tops) -> tuple[float, tuple[Position, ...], list[Term], list[str], float]:
         """(energy, positions, terms, warnings) of one chair; with inverting ring nitrogens, the
         best of the ways of putting one position of each such nitrogen axial."""
-        up = self.up[chair]
+        axial_at, top_when = self.axial_at[chair], self.top_when[chair]
         best: tuple[float, Sequence[bool], list[Term], list[str], float] | None = None
         for chosen in self.choices:
             faces = cast("Sequence[bool]", tops)  # None only at inverting positions, set here
             if self.inverting:  # an inverting position's face follows from whether it is axial
-                faces = [(j in chosen) == up[j] if t is None else t for j, t in enumerate(tops)]
-            # a position is axial where its face is the way its atom points
-            energy, terms, warnings, largest = self.model.evaluate([faces[j] == up[j] for j in self.entry_slot])
+                faces = [top_when[j][j in chosen] if t is None else t for j, t in enumerate(tops)]
+            energy, terms, warnings, largest = self.model.evaluate([axial_at[j][faces[j]] for j in self.entry_slot])
             if best is None or energy < best[0] - 1e-9:
                 best = (energy, faces, terms, warnings, largest)
         assert best is not None
@@ -141,17 +148,12 @@ class ChairPair:
             atom=s.atom,
             label=label,
             face=TOP if top else BOTTOM,
-            orientation=AXIAL if top == self.up[chair][j] else EQUATORIAL,
+            orientation=AXIAL if self.axial_at[chair][j][top] else EQUATORIAL,
             inverting=s.inverting,
             estimated=estimated,
         )
         self._made[chair][j][top] = made
         return made
-
-
-def tops_of(slots: tuple[Slot, ...]) -> Tops:
-    """The faces of slots as ``ChairPair`` takes them: True top, False bottom, None inverting."""
-    return tuple(None if s.face is None else s.face == TOP for s in slots)
 
 
 def _trigonal_warnings(ring: ChairRing, substituted: set[int]) -> list[str]:

@@ -12,7 +12,7 @@ trip against InChI and against faces read from RDKit 3D chairs.
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 
 from rdkit import Chem
@@ -39,6 +39,14 @@ class Slot:
     @property
     def is_group(self) -> bool:
         return self.element not in ("H", "LP")
+
+
+Tops = Sequence["bool | None"]  # per slot: True top face, False bottom, None inverting
+
+
+def tops_of(slots: tuple[Slot, ...]) -> tuple[bool | None, ...]:
+    """The faces of slots as a face assignment: True top, False bottom, None inverting."""
+    return tuple(None if s.face is None else s.face == TOP for s in slots)
 
 
 def parity(order: list, target: list) -> int:

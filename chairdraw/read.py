@@ -59,11 +59,7 @@ class Structure:
         if not kinds:
             if self.chiral_flag != 0:  # only a molfile's chiral flag 0 makes stereo relative
                 return "absolute"
-            has_stereo = any(
-                a.GetChiralTag() in (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
-                for a in self.mol.GetAtoms()
-            )
-            return "relative" if self.chiral_flag == 0 and has_stereo else "absolute"
+            return "relative" if self.chiral_flag == 0 and _tagged(self.mol) else "absolute"
         if kinds == {"and"}:
             return "racemic"
         if kinds == {"or"}:
@@ -223,12 +219,16 @@ def _dropped_marks(smiles: str, mol: Chem.Mol) -> int:
     marks = sum(1 for m in re.findall(r"@(@|TH\d|AL\d|SP\d|TB\d+|OH\d+)?", smiles) if m in ("", "@", "TH1", "TH2"))
     if not marks:
         return 0
-    atom = mol.GetAtomWithIdx
-    tagged = sum(1 for i in range(mol.GetNumAtoms()) if atom(i).GetChiralTag() in _TETRAHEDRAL)
-    return max(0, marks - tagged)
+    return max(0, marks - len(_tagged(mol)))
 
 
 _TETRAHEDRAL = (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
+
+
+def _tagged(mol: Chem.Mol) -> list[int]:
+    """Atoms with a tetrahedral tag."""
+    atom = mol.GetAtomWithIdx
+    return [i for i in range(mol.GetNumAtoms()) if atom(i).GetChiralTag() in _TETRAHEDRAL]
 
 
 def _smiles_error(parse_text: str, params: Chem.SmilesParserParams, smiles: str, record: str | None) -> InputError:
@@ -270,8 +270,7 @@ def _read_inchi(text: str, source: str, record: str | None) -> Structure:
     # centres and drops the meaning, which an enhanced-stereo group over them keeps
     meaning = re.search(r"/s([23])(?:/|$)", inchi)
     if meaning:
-        atom = mol.GetAtomWithIdx
-        tagged = [i for i in range(mol.GetNumAtoms()) if atom(i).GetChiralTag() in _TETRAHEDRAL]
+        tagged = _tagged(mol)
         if tagged:
             # one group per component: the InChI relates the centres of one component only
             kind = Chem.StereoGroupType.STEREO_OR if meaning.group(1) == "2" else Chem.StereoGroupType.STEREO_AND

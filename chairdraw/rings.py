@@ -167,12 +167,9 @@ def _facts(graph: MolGraph, ring: tuple[int, ...]) -> dict[int, _Facts]:
             elif order == 1:
                 o_single = o_single or z == 8
                 on_single = on_single or z in (7, 8)
-        planar = ammonium = False
-        if symbol != "C":
-            atom = graph.mol.GetAtomWithIdx(i)
-            planar = atom.GetHybridization() == Chem.HybridizationType.SP2
-            ammonium = symbol == "N" and (atom.GetFormalCharge() > 0 or atom.GetDegree() + atom.GetTotalNumHs() == 4)
         degree = len(graph.neighbours[i])
+        planar = symbol != "C" and graph.mol.GetAtomWithIdx(i).GetHybridization() == Chem.HybridizationType.SP2
+        ammonium = symbol == "N" and (graph.charge(i) > 0 or degree + graph.hydrogens(i) == 4)
         out[i] = _Facts(symbol, degree, trig or planar, oxo, double_to, planar, ammonium, subst, o_single, on_single)
     return out
 
