@@ -130,6 +130,9 @@ def summary_line(analysis: Analysis, units: str = "kcal") -> str:
             )
         if any("twist-boat" in w for w in ring.warnings):
             text += ", twist-boat likely"
+        if any("A(1,3) strain" in w for w in ring.warnings):
+            # the one effect the tables miss that can reverse the answer: say so on the line itself
+            text += ", but A(1,3) strain (not modelled) may put the group beside the planar N axial"
         if ring.warnings:
             text += f" ({len(ring.warnings)} warning{'s' if len(ring.warnings) > 1 else ''}: see --full)"
         parts.append(text)

@@ -166,3 +166,14 @@ def test_a_smiles_beside_a_directory_of_that_name_is_still_a_smiles(tmp_path, mo
     (tmp_path / "OC").mkdir()
     assert main(["analyze", "OC", "--json"]) == 0
     assert json.loads(capsys.readouterr().out)["smiles"] == "CO"
+
+
+def test_summary_line_carries_the_warnings_that_can_reverse_the_answer():
+    # anti-1,3-diol acetonides are twist-boats; N-acyl 2-alkylpiperidines often put the 2-group axial
+    # (A(1,3) strain; Johnson, Chem. Rev. 1968, 68, 375, from memory): one line per record must say so
+    import chairdraw
+    from chairdraw.report import summary_line
+
+    assert "twist-boat likely" in summary_line(chairdraw.analyze("C[C@@H]1C[C@@H](C)OC(C)(C)O1"))
+    assert "A(1,3) strain" in summary_line(chairdraw.analyze("CC(=O)N1CCCC[C@@H]1C"))
+    assert "A(1,3) strain" not in summary_line(chairdraw.analyze("CC(C)(C)OC(=O)N1CC[C@@H](C)CC1"))
