@@ -15,13 +15,17 @@ from .errors import (
     ChairdrawError,
     DataFileError,
     EnergyError,
+    FigureError,
     FormatError,
     InputError,
+    LabelError,
     RingError,
     StereoError,
     UsageError,
 )
+from .figure import Figure, draw
 from .read import Structure, read
+from .render.style import Style, load_style
 from .results import Analysis, Chair, Position, RingResult
 
 __version__ = "0.1.0"
@@ -33,15 +37,21 @@ __all__ = [
     "ChairdrawError",
     "DataFileError",
     "EnergyError",
+    "Figure",
+    "FigureError",
+    "LabelError",
     "FormatError",
     "InputError",
     "Position",
     "RingError",
     "RingResult",
     "StereoError",
+    "Style",
     "Structure",
     "UsageError",
     "analyze",
+    "draw",
+    "load_style",
     "read",
     "__version__",
 ]

@@ -16,7 +16,10 @@ from . import __version__
 from .analyze import FORCEFIELD_MODES, SOLVENTS, Analyzer
 from .demo import demo_records
 from .errors import ChairdrawError
+from .figure import draw_analysis
 from .read import FORMATS, read, read_text
+from .render.export import output_type
+from .render.style import CHAIRS, HYDROGENS, Style, load_style
 from .report import DISCLAIMER, format_analysis, summary_line
 
 OK, MISMATCH, BAD_INPUT = 0, 1, 2
@@ -50,10 +53,47 @@ def _parser() -> argparse.ArgumentParser:
     a.add_argument("--format", choices=FORMATS, help="override format sniffing")
     energy_options(a)
 
+    def figure_options(q: argparse.ArgumentParser) -> None:
+        q.add_argument("--dpi", type=float, default=300.0, help="PNG resolution (300)")
+        q.add_argument(
+            "--chair", choices=CHAIRS, default="both", help="both chairs, the favoured one, or the other one"
+        )
+        q.add_argument(
+            "--hydrogens", choices=HYDROGENS, default=None, help="H atoms drawn: none, on stereocentres, all"
+        )
+        q.add_argument("--numbering", action="store_true", help="ring locants inside the ring")
+        q.add_argument("--style", metavar="FILE.toml", help="style settings (sizes in pt) from a TOML file")
+        q.add_argument("--bond-length", type=float, metavar="PT", help="bond length in pt (14.4)")
+        q.add_argument("--line-width", type=float, metavar="PT", help="line width in pt (0.6)")
+        q.add_argument("--font-size", type=float, metavar="PT", help="label font size in pt (10)")
+
+    w = sub.add_parser("draw", help="draw both chairs of each ring as SVG, PNG or PDF")
+    w.add_argument("input", help="SMILES, CXSMILES, InChI, a molfile/SDF path, or - for standard input")
+    w.add_argument("-o", "--output", required=True, metavar="FILE", help="figure file: .svg, .png or .pdf")
+    w.add_argument("--format", choices=FORMATS, help="override format sniffing")
+    w.add_argument("--ring", type=int, metavar="N", help="draw only ring result N (0-based, in report order)")
+    w.add_argument("--caption", help="text under the figure")
+    figure_options(w)
+    energy_options(w)
+
     d = sub.add_parser("demo", help="analyse the built-in demo set")
     d.add_argument("--full", action="store_true", help="full report for every record, not one line each")
+    d.add_argument("--out", metavar="DIR", help="also write each record's figure (SVG and PNG) into DIR")
+    figure_options(d)
     energy_options(d)
     return p
+
+
+def _style(args) -> Style:
+    style = load_style(args.style) if args.style else Style()
+    return style.replace(
+        bond_length=args.bond_length,
+        line_width=args.line_width,
+        font_size=args.font_size,
+        hydrogens=args.hydrogens,
+        units=args.units,
+        numbering=args.numbering or None,
+    )
 
 
 def main(argv: Sequence[str] | None = None) -> int:
@@ -62,6 +102,8 @@ def main(argv: Sequence[str] | None = None) -> int:
         analyzer = Analyzer(args.temperature, args.solvent, args.forcefield)
         if args.command == "analyze":
             return _analyze(args, analyzer)
+        if args.command == "draw":
+            return _draw(args, analyzer)
         return _demo(args, analyzer)
     except ChairdrawError as exc:
         print(f"chairdraw: {exc}", file=sys.stderr)
@@ -82,15 +124,33 @@ def _quoted(text: str, width: int = 40) -> str:
     return repr(text if len(text) <= width else text[: width - 1] + "…")
 
 
-def _analyze(args, analyzer: Analyzer) -> int:
+def _read_and_analyze(args, analyzer: Analyzer):
     try:
         if args.input == "-":
             structure = read_text(sys.stdin.read(), format=args.format, source="stdin")
         else:
             structure = read(args.input, format=args.format)
-        result = analyzer.analyze(structure)
+        return analyzer.analyze(structure)
     except ChairdrawError as exc:
         raise exc.with_record(_quoted(args.input)) from None
+
+
+def _draw(args, analyzer: Analyzer) -> int:
+    style = _style(args)
+    output_type(args.output)  # a bad file name is a usage error before any work
+    result = _read_and_analyze(args, analyzer)
+    try:
+        figure = draw_analysis(result, style, args.chair, args.ring, args.caption)
+        figure.save(args.output, dpi=args.dpi)
+    except ChairdrawError as exc:
+        raise exc.with_record(_quoted(args.input)) from None
+    print(f"wrote {args.output} ({figure.width:.0f} x {figure.height:.0f} pt)", file=sys.stderr)
+    print(DISCLAIMER, file=sys.stderr)
+    return OK
+
+
+def _analyze(args, analyzer: Analyzer) -> int:
+    result = _read_and_analyze(args, analyzer)
     if args.json:
         print(json.dumps(result.to_dict(), indent=2, ensure_ascii=False))
     else:
@@ -102,8 +162,16 @@ def _analyze(args, analyzer: Analyzer) -> int:
 
 def _demo(args, analyzer: Analyzer) -> int:
     rows = []
+    style = _style(args)
+    if args.out:
+        os.makedirs(args.out, exist_ok=True)
     for smiles, record in demo_records():
         result = analyzer.analyze(read(smiles, record=record))
+        if args.out and result.rings:
+            figure = draw_analysis(result, style, args.chair, caption=record)
+            stem = "".join(c if c.isalnum() or c in "-_" else "_" for c in record.split()[0])
+            for kind in ("svg", "png"):
+                figure.save(os.path.join(args.out, f"{stem}.{kind}"), dpi=args.dpi)
         if args.json:
             rows.append(result.to_dict())
         elif args.full:

@@ -72,3 +72,19 @@ class UsageError(ChairdrawError, ValueError):
     """A bad option or argument value given to the API or the command line."""
 
     stage = "usage"
+
+
+class LabelError(ChairdrawError, ValueError):
+    """A condensed substituent label could not be read; ``detail`` shows it with a caret."""
+
+    stage = "label"
+
+    def __init__(self, message: str, *, column: int | None = None, **kwargs):
+        super().__init__(message, **kwargs)
+        self.column = column  # 1-based column of the problem in the label
+
+
+class FigureError(ChairdrawError, ValueError):
+    """A figure could not be laid out or written (bad style value, unknown output type)."""
+
+    stage = "figure"

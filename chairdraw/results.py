@@ -187,6 +187,16 @@ class Analysis:
     def inchi(self) -> str:
         return _rdkit.standard_inchi(self.mol)
 
+    def _repr_svg_(self) -> str | None:
+        """Jupyter shows an analysis as its chair figure (nothing, if there is no ring to draw)."""
+        from .errors import ChairdrawError
+        from .figure import draw_analysis
+
+        try:
+            return draw_analysis(self).svg()
+        except ChairdrawError:
+            return None
+
     def to_dict(self) -> dict:
         return {
             "schema_version": SCHEMA_VERSION,

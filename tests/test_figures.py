@@ -1,0 +1,325 @@
+"""Chair figures: geometry of the chair picture, stereo read back from the drawing by RDKit, the
+files written, and the command line.
+
+The stereo round trip rebuilds 3D coordinates from the drawing alone (ring atom up or down from
+the V it makes on the page, axial bonds vertical, the known viewing angle) and lets RDKit perceive
+the stereo from 3D; its InChI must equal the input's. RDKit's 3D perception is the outside
+reference here, independent of chairdraw's face code."""
+
+from __future__ import annotations
+
+import io
+import itertools
+import math
+import xml.etree.ElementTree as ET
+
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+from PIL import Image
+from rdkit import Chem
+from rdkit.Chem import rdDepictor
+from rdkit.Geometry import Point3D
+
+import chairdraw
+from chairdraw.cli import main
+from chairdraw.figure import chair_panel, draw_analysis
+from chairdraw.layout import ELEVATION_DEG, clashes, ring_picture
+from chairdraw.render.style import Style
+
+CHAIR_PATTERNS = [tuple(k % 2 == p for k in range(6)) for p in (0, 1)]
+
+
+def _angle(u, v) -> float:
+    """Angle between two lines in degrees (0-90: direction of travel ignored)."""
+    cos = abs(u[0] * v[0] + u[1] * v[1]) / (math.hypot(*u) * math.hypot(*v))
+    return math.degrees(math.acos(min(1.0, cos)))
+
+
+def _vec(a, b):
+    return b[0] - a[0], b[1] - a[1]
+
+
+@pytest.mark.parametrize("up,first", list(itertools.product(CHAIR_PATTERNS, range(6))))
+def test_chair_picture_follows_the_drawing_rules(up, first):
+    g = ring_picture(up, first)
+    p = g.points
+    for k in range(3):  # three pairs of parallel ring bonds
+        assert _angle(_vec(p[k], p[k + 1]), _vec(p[k + 3], p[(k + 4) % 6])) < 1.0
+    for k in range(6):
+        assert abs(g.axial[k][0]) < 1e-9 and (g.axial[k][1] > 0) == g.up[k]  # vertical, the way of its V
+        one_step = _vec(p[(k + 1) % 6], p[(k + 2) % 6])
+        assert _angle(g.equatorial[k], one_step) < 1.0
+        assert _angle(g.equatorial[k], _vec(p[(k - 1) % 6], p[(k - 2) % 6])) < 1.0
+        here, before, after = p[k][1], p[(k - 1) % 6][1], p[(k + 1) % 6][1]
+        assert (here > before and here > after) if g.up[k] else (here < before and here < after)  # a V
+        outward = (p[k][0] - sum(q[0] for q in p) / 6, p[k][1] - sum(q[1] for q in p) / 6)
+        assert g.equatorial[k][0] * outward[0] + g.equatorial[k][1] * outward[1] > 0  # points out of the ring
+
+
+def test_the_atom_numbered_1_sits_on_the_right_tip():
+    for up in CHAIR_PATTERNS:
+        g = ring_picture(up, 2)
+        assert g.points[2][0] == max(x for x, _ in g.points)
+
+
+# --- stereo read back from the drawing ------------------------------------------------------------
+
+GROUPS = ["C", "O", "Cl", "F", "OC", "C(=O)OC", "CC", "N", "C(C)(C)C", "C(F)(F)F"]
+
+
+def _lift(analysis, ring, chair) -> Chem.Mol:
+    """The molecule with 3D coordinates rebuilt from the 2D chair drawing."""
+    panel, _ = chair_panel(analysis, ring, chair, Style(hydrogens="all"))
+    eps = math.radians(ELEVATION_DEG)
+    ring_pts = [panel.atoms[(a, a)] for a in ring.atoms]
+    ups = []
+    for k in range(6):
+        y, yb, ya = -ring_pts[k][1], -ring_pts[k - 1][1], -ring_pts[(k + 1) % 6][1]
+        ups.append(y > yb and y > ya)
+    h = _pucker(ring_pts, ups, eps)
+    z_ring = {a: (h if ups[k] else -h) for k, a in enumerate(ring.atoms)}
+    mol = Chem.AddHs(analysis.mol)
+    conf = Chem.Conformer(mol.GetNumAtoms())
+    rdDepictor.Compute2DCoords(mol)
+    flat = mol.GetConformer()
+    for i in range(mol.GetNumAtoms()):  # atoms the drawing does not place: far away, off to one side
+        q = flat.GetAtomPosition(i)
+        conf.SetAtomPosition(i, Point3D(q.x * 20 + 500, q.y * 20, 0))
+
+    def put(idx, x2, y2, z):
+        y_page = -y2
+        depth = (y_page - z * math.cos(eps)) / math.sin(eps)
+        conf.SetAtomPosition(idx, Point3D(x2, depth, z))
+
+    for k, a in enumerate(ring.atoms):
+        put(a, ring_pts[k][0], ring_pts[k][1], z_ring[a])
+    ring_3d = [tuple(conf.GetAtomPosition(a)) for a in ring.atoms]
+    used_h = set()
+    for (ring_atom, atom), (x2, y2) in panel.atoms.items():
+        if atom == ring_atom:
+            continue
+        rx, ry = ring_pts[ring.atoms.index(ring_atom)]
+        dx, dy = x2 - rx, -(y2 - ry)
+        length = math.hypot(dx, dy)
+        if abs(dx) < 1e-6:  # vertical: axial, straight up or down
+            z = z_ring[ring_atom] + math.copysign(length, dy)
+        else:  # equatorial: parallel to the ring bonds one step away, so its 3D direction is theirs
+            k = ring.atoms.index(ring_atom)
+            a3, b3 = ring_3d[(k + 1) % 6], ring_3d[(k + 2) % 6]
+            v = (b3[0] - a3[0], b3[1] - a3[1], b3[2] - a3[2])
+            t = dx / v[0] if abs(v[0]) > 1e-6 else dy / (v[2] * math.cos(eps) + v[1] * math.sin(eps))
+            z = z_ring[ring_atom] + t * v[2]
+        if atom is None:  # an H: use one of the ring atom's explicit H atoms
+            hs = [
+                n.GetIdx()
+                for n in mol.GetAtomWithIdx(ring_atom).GetNeighbors()
+                if n.GetAtomicNum() == 1 and n.GetIdx() not in used_h
+            ]
+            if not hs:
+                continue
+            atom = hs[0]
+            used_h.add(atom)
+        conf.SetAtomPosition(atom, Point3D(0, 0, 0))
+        y_page = y2
+        put(atom, x2, y_page, z)
+    mol.RemoveAllConformers()
+    mol.AddConformer(conf, assignId=True)
+    Chem.AssignStereochemistryFrom3D(mol, replaceExistingTags=True)
+    mol.RemoveAllConformers()  # InChI would read the rough 3D itself; the test is RDKit's perception
+    return Chem.RemoveHs(mol)
+
+
+def _pucker(points, ups, eps) -> float:
+    """How far (pt) the ring atoms sit above and below the mean plane: the value at which the six
+    ring bonds rebuilt in 3D come out equally long, as they are in a chair."""
+
+    def spread(h):
+        xyz = []
+        for (x, y), up in zip(points, ups):
+            z = h if up else -h
+            xyz.append((x, (-y - z * math.cos(eps)) / math.sin(eps), z))
+        lengths = [math.dist(xyz[k], xyz[(k + 1) % 6]) for k in range(6)]
+        return max(lengths) - min(lengths)
+
+    return min((spread(h / 20), h / 20) for h in range(1, 400))[1]
+
+
+@st.composite
+def substituted_rings(draw):
+    ring_o = draw(st.booleans())
+    atoms = ["C"] * 6
+    if ring_o:
+        atoms[0] = "O"
+    smiles_atoms = []
+    for k in range(6):
+        if atoms[k] == "O":
+            smiles_atoms.append("O")
+            continue
+        group = draw(st.sampled_from([None, None] + GROUPS))
+        if group is None:
+            smiles_atoms.append("C")
+        else:
+            tag = draw(st.sampled_from(["@", "@@"]))
+            smiles_atoms.append(f"[C{tag}H]({group})")
+    text = smiles_atoms[0] + "1" + "".join(smiles_atoms[1:5]) + smiles_atoms[5] + "1"
+    mol = Chem.MolFromSmiles(text)
+    if mol is None:
+        return None
+    return Chem.MolToSmiles(mol)
+
+
+@settings(max_examples=300, deadline=None, suppress_health_check=[HealthCheck.filter_too_much])
+@given(substituted_rings())
+def test_drawn_chairs_read_back_as_the_input_stereoisomer(smiles):
+    if smiles is None:
+        return
+    analysis = chairdraw.analyze(smiles)
+    if len(analysis.rings) != 1 or analysis.rings[0].configuration is not None:
+        return  # open stereo: enumerated configurations are checked in the engine's own tests
+    ring = analysis.rings[0]
+    want = Chem.MolToInchi(Chem.MolFromSmiles(smiles))
+    for chair in ring.chairs:
+        got = Chem.MolToInchi(_lift(analysis, ring, chair))
+        assert got == want, (smiles, chair.name)
+
+
+@pytest.mark.parametrize(
+    "smiles",
+    [
+        "OC[C@H]1O[C@@H](O)[C@H](O)[C@@H](O)[C@@H]1O",  # beta-D-glucopyranose
+        "CC(C)[C@@H]1CC[C@@H](C)C[C@H]1O",  # (-)-menthol
+        "CO[C@@H]1O[C@H](CO)[C@@H](O)[C@H](O)[C@H]1O",
+        "C[C@H]1CC[C@@H](O[Si](C)(C)C(C)(C)C)CC1",
+    ],
+)
+def test_named_examples_read_back_from_both_chairs(smiles):
+    analysis = chairdraw.analyze(smiles)
+    want = Chem.MolToInchi(Chem.MolFromSmiles(smiles))
+    for chair in analysis.rings[0].chairs:
+        assert Chem.MolToInchi(_lift(analysis, analysis.rings[0], chair)) == want
+
+
+# --- the figure and its files -------------------------------------------------------------------
+
+DEMO_LIKE = [
+    "C[C@H]1CC[C@@H](O)CC1",
+    "OC[C@H]1O[C@@H](O)[C@H](O)[C@@H](O)[C@@H]1O",
+    "COC(=O)[C@H]1CC[C@@H](O[Si](C)(C)C(C)(C)C)CC1",
+    "CC(=O)N1CCCC[C@@H]1C",
+    "C[C@@H]1CCC(=O)CC1",
+]
+
+
+@pytest.mark.parametrize("smiles", DEMO_LIKE)
+def test_nothing_touches_in_the_figure(smiles):
+    figure = chairdraw.draw(smiles)
+    assert clashes(list(figure.strokes), list(figure.texts)) == []
+
+
+def test_favoured_chair_is_flagged_without_colour():
+    figure = chairdraw.draw("C[C@H]1CC[C@@H](O)CC1")  # cis: 4-Me equatorial favoured
+    captions = [t for t in figure.texts if t.role == "caption"]
+    assert [t.weight for t in captions].count("bold") == 1
+    arrows = sorted(
+        (abs(s.end[0] - s.start[0]), s.end[0] - s.start[0] > 0) for s in figure.strokes if s.role == "arrow"
+    )
+    (short, _), (long_, long_points_right) = arrows
+    assert long_ > short
+    bold_x = next(t.x for t in captions if t.weight == "bold")
+    other_x = next(t.x for t in captions if t.weight != "bold")
+    assert long_points_right == (bold_x > other_x)
+    assert 'fill="red"' not in figure.svg() and 'stroke="red"' not in figure.svg()
+
+
+def test_svg_is_valid_xml_with_title_description_and_point_size():
+    svg = chairdraw.draw("C[C@H]1CC[C@@H](O)CC1").svg()
+    root = ET.fromstring(svg)
+    ns = "{http://www.w3.org/2000/svg}"
+    assert root.find(f"{ns}title").text.startswith("Chair conformations")
+    assert "favoured" in root.find(f"{ns}desc").text
+    assert root.get("width").endswith("pt")
+
+
+def test_png_has_the_size_the_dpi_asks_for_and_is_not_blank():
+    figure = chairdraw.draw("C[C@H]1CC[C@@H](O)CC1")
+    image = Image.open(io.BytesIO(figure.render("png", dpi=150))).convert("L")
+    assert abs(image.width - figure.width * 150 / 72) <= 1 and abs(image.height - figure.height * 150 / 72) <= 1
+    dark = image.histogram()[:128]
+    dark = sum(dark)
+    assert 0.005 < dark / (image.width * image.height) < 0.3
+
+
+def test_pdf_page_is_the_figure_size_in_points():
+    pypdf = pytest.importorskip("pypdf")
+    figure = chairdraw.draw("C[C@H]1CC[C@@H](O)CC1")
+    page = pypdf.PdfReader(io.BytesIO(figure.render("pdf"))).pages[0]
+    assert abs(float(page.mediabox.width) - figure.width) < 0.5
+    assert abs(float(page.mediabox.height) - figure.height) < 0.5
+
+
+def test_analysis_shows_itself_in_jupyter():
+    assert chairdraw.analyze("CC1CCCCC1")._repr_svg_().startswith("<svg")
+    assert chairdraw.analyze("CCO")._repr_svg_() is None
+
+
+def test_units_kj():
+    figure = draw_analysis(chairdraw.analyze("CC1CCCCC1"), Style(units="kJ"))
+    energy = next(t.plain for t in figure.texts if t.role == "energy")
+    assert energy.endswith("kJ/mol") and abs(float(energy.split()[2]) - 1.74 * 4.184) < 0.1  # Me A-value 1.74
+
+
+def test_single_chair_choices():
+    analysis = chairdraw.analyze("CC1CCCCC1")
+    favoured = draw_analysis(analysis, chairs="favored")
+    flipped = draw_analysis(analysis, chairs="flip")
+    assert [t.weight for t in favoured.texts if t.role == "caption"] == ["bold"]
+    assert [t.weight for t in flipped.texts if t.role == "caption"] == ["regular"]
+    assert not [s for s in favoured.strokes if s.role == "arrow"]
+
+
+# --- command line -------------------------------------------------------------------------------
+
+
+def test_cli_draw_writes_each_type(tmp_path, capsys):
+    for kind in ("svg", "png", "pdf"):
+        out = tmp_path / f"f.{kind}"
+        assert main(["draw", "C[C@H]1CC[C@@H](O)CC1", "-o", str(out), "--dpi", "100", "--forcefield", "never"]) == 0
+        assert out.stat().st_size > 500
+    assert "wrote" in capsys.readouterr().err
+
+
+@pytest.mark.parametrize(
+    "argv,message",
+    [
+        (["draw", "CCO", "-o", "x.svg"], "no ring that can take a chair"),
+        (["draw", "CC1CCCCC1", "-o", "x.gif"], "ending in .svg, .png or .pdf"),
+        (["draw", "CC1CCCCC1", "-o", "x.svg", "--ring", "3"], "ring 3 asked for"),
+        (["draw", "CC1CCCCC1", "-o", "x.png", "--dpi", "0"], "dpi must be"),
+        (["draw", "CC1CCCCC1", "-o", "x.svg", "--bond-length", "-2"], "bond_length"),
+    ],
+)
+def test_cli_draw_bad_input(tmp_path, capsys, monkeypatch, argv, message):
+    monkeypatch.chdir(tmp_path)
+    assert main(argv) == 2
+    err = capsys.readouterr().err
+    assert message in err and "Traceback" not in err and len(err.strip().splitlines()) == 1
+
+
+def test_cli_style_file(tmp_path):
+    style = tmp_path / "journal.toml"
+    style.write_text("[style]\nbond_length = 20\nfont_size = 8\n")
+    small = tmp_path / "a.svg"
+    big = tmp_path / "b.svg"
+    assert main(["draw", "CC1CCCCC1", "-o", str(small), "--forcefield", "never"]) == 0
+    assert main(["draw", "CC1CCCCC1", "-o", str(big), "--style", str(style), "--forcefield", "never"]) == 0
+    width = [float(ET.parse(p).getroot().get("width")[:-2]) for p in (small, big)]
+    assert width[1] > width[0]
+    style.write_text("bond_lenght = 20\n")
+    assert main(["draw", "CC1CCCCC1", "-o", str(big), "--style", str(style)]) == 2
+
+
+def test_demo_writes_the_gallery(tmp_path):
+    assert main(["demo", "--out", str(tmp_path), "--forcefield", "never"]) == 0
+    svgs = sorted(p.name for p in tmp_path.glob("*.svg"))
+    assert len(svgs) >= 12 and len(list(tmp_path.glob("*.png"))) == len(svgs)
