@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
+from functools import cache, cached_property
 from dataclasses import dataclass
 
 from .labels import NORMAL, SUB, SUP, can_parse, parse_label
@@ -62,8 +63,15 @@ class Text:
     role: str  # label, atom, caption, energy, locant, title
     plain: str  # the text as read aloud (aria-label)
 
-    def boxes(self) -> list[tuple[float, float, float, float]]:
+    @cached_property
+    def _boxes(self) -> tuple[tuple[float, float, float, float], ...]:
+        return tuple(self._measure())
+
+    def boxes(self) -> tuple[tuple[float, float, float, float], ...]:
         """Box (x0, y0, x1, y1) of each run: advance width by cap height, shifted for sub/sup."""
+        return self._boxes
+
+    def _measure(self):
         m = fonttext.metrics(self.weight)
         x, out = self.x, []
         for run in self.runs:
@@ -119,6 +127,7 @@ def clashes(strokes: list[Stroke], texts: list[Text], tolerance: float = 0.3, ot
     return out
 
 
+@cache
 def chair_geometry(up: tuple[bool, ...]) -> ChairGeometry:
     """The projected ideal chair whose picture slot j points up where ``up[j]``."""
     ce, se = math.cos(math.radians(ELEVATION_DEG)), math.sin(math.radians(ELEVATION_DEG))
@@ -275,10 +284,12 @@ def boxes_overlap(a, b, slack: float = 0.0) -> bool:
 
 
 def segment_hits_box(p: Point, q: Point, box) -> bool:
+    x0, y0, x1, y1 = box
+    if max(p[0], q[0]) < x0 or min(p[0], q[0]) > x1 or max(p[1], q[1]) < y0 or min(p[1], q[1]) > y1:
+        return False  # most pairs are far apart: the cheap test first
     inside = clip_to_box(p, q, box)
     if inside != q:
         return True
-    x0, y0, x1, y1 = box
     return x0 <= q[0] <= x1 and y0 <= q[1] <= y1
 
 

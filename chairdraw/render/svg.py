@@ -46,7 +46,7 @@ def to_svg(figure, debug: bool = False) -> str:
             size = t.size * (SUB_SCALE if run.kind != "normal" else 1)
             y = t.y + _SHIFT[run.kind] * t.size
             paths, x = fonttext.outline(run.text, x, y, size, t.weight)
-            for d in paths:
-                group.add(dwg.path(d=d))
+            for d, transform in paths:
+                group.add(dwg.path(d=d, transform=transform))
         dwg.add(group)
     return dwg.tostring()

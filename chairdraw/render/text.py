@@ -85,21 +85,21 @@ def has_glyph(char: str, weight: str = "regular") -> bool:
     return ord(char) in _font(weight).getBestCmap()
 
 
-def outline(text: str, x: float, y: float, size: float, weight: str = "regular") -> tuple[list[str], float]:
-    """SVG path data (y down) for ``text`` with its baseline starting at (x, y), one string per
-    glyph as a transform-free path, and the x where the text ends."""
+def outline(text: str, x: float, y: float, size: float, weight: str = "regular") -> tuple[list[tuple[str, str]], float]:
+    """(path data in em units, transform) per glyph for ``text`` with its baseline starting at
+    (x, y) on a y-down page, and the x where the text ends. The path data of a glyph is made once;
+    the transform scales it, flips it and moves it into place."""
     paths = []
     for ch in text:
-        advance, commands = _glyph(weight, ch)
-        if commands:
-            paths.append(_placed(commands, x, y, size))
+        advance, d = _path(weight, ch)
+        if d:
+            paths.append((d, f"matrix({size:.3f} 0 0 {-size:.3f} {x:.2f} {y:.2f})"))
         x += advance * size
     return paths, x
 
 
-def _placed(glyph: Outline, x: float, y: float, size: float) -> str:
-    # scaled and moved into place with y flipped, on the numbers themselves, so that the SVG needs
-    # no transform attributes (some editors lose them when ungrouping)
-    return "".join(
-        op + " ".join(f"{x + px * size:.2f} {y - py * size:.2f}" for px, py in points) for op, points in glyph if op
-    )
+@cache
+def _path(weight: str, char: str) -> tuple[float, str]:
+    advance, glyph = _glyph(weight, char)
+    d = "".join(op + " ".join(f"{px:.4f} {py:.4f}" for px, py in points) for op, points in glyph if op)
+    return advance, d
