@@ -18,8 +18,8 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from functools import cache, cached_property
 from dataclasses import dataclass
+from functools import cache, cached_property
 
 from .labels import NORMAL, SUB, SUP, can_parse, parse_label
 from .render import text as fonttext
