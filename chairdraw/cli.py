@@ -14,8 +14,9 @@ from collections.abc import Sequence
 
 from . import __version__
 from .analyze import FORCEFIELD_MODES, SOLVENTS, Analyzer
+from .chairmol import chair_molblock
 from .demo import demo_records
-from .errors import ChairdrawError
+from .errors import ChairdrawError, FigureError
 from .figure import draw_analysis
 from .read import FORMATS, read, read_text
 from .render.export import output_type
@@ -73,6 +74,11 @@ def _parser() -> argparse.ArgumentParser:
     w.add_argument("--format", choices=FORMATS, help="override format sniffing")
     w.add_argument("--ring", type=int, metavar="N", help="draw only ring result N (0-based, in report order)")
     w.add_argument("--caption", help="text under the figure")
+    w.add_argument(
+        "--molfile",
+        metavar="CHAIR.mol",
+        help="also write the chair as drawn (favoured, or --chair flip) as a 2D molfile",
+    )
     figure_options(w)
     energy_options(w)
 
@@ -142,11 +148,22 @@ def _draw(args, analyzer: Analyzer) -> int:
     try:
         figure = draw_analysis(result, style, args.chair, args.ring, args.caption)
         figure.save(args.output, dpi=args.dpi)
+        if args.molfile:
+            block = chair_molblock(result, args.ring or 0, "flip" if args.chair == "flip" else "favored", style)
+            _write_text(args.molfile, block)
     except ChairdrawError as exc:
         raise exc.with_record(_quoted(args.input)) from None
     print(f"wrote {args.output} ({figure.width:.0f} x {figure.height:.0f} pt)", file=sys.stderr)
     print(DISCLAIMER, file=sys.stderr)
     return OK
+
+
+def _write_text(path: str, text: str) -> None:
+    try:
+        with open(path, "w", encoding="utf-8") as handle:
+            handle.write(text)
+    except OSError as exc:
+        raise FigureError(f"cannot write {path!r}: {exc.strerror}") from None
 
 
 def _analyze(args, analyzer: Analyzer) -> int:

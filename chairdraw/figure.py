@@ -163,12 +163,7 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
     hetero_atoms = {a for a in ring.atoms if mol.GetAtomWithIdx(a).GetSymbol() != "C"}
     for p in chair.positions:
         k = ring.atoms.index(p.ring_atom)
-        hetero = ring.atoms[k] in hetero_atoms
-        if p.label != "lone pair":
-            reach = style.bond_length * scale * (H_BOND if p.label == "H" else 1.0)
-            d = g.axial[k] if p.orientation == "axial" else g.equatorial[k]
-            panel.atoms[(p.ring_atom, p.atom)] = (at[k][0] + d[0] * reach, at[k][1] - d[1] * reach)
-        if p.label == "lone pair" or not _shown(p.label, hetero, p.ring_atom in stereo_atoms, style):
+        if p.label == "lone pair":
             continue
         axial = p.orientation == "axial"
         if axial and (p.face == "top") != g.up[k]:
@@ -178,6 +173,10 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
         d = g.axial[k] if axial else g.equatorial[k]
         direction = (d[0], -d[1])
         length = style.bond_length * scale * (H_BOND if p.label == "H" else 1.0)
+        # recorded for every position, drawn or not (the chair molfile puts H on stereocentres)
+        panel.atoms[(p.ring_atom, p.atom)] = (at[k][0] + direction[0] * length, at[k][1] + direction[1] * length)
+        if not _shown(p.label, ring.atoms[k] in hetero_atoms, p.ring_atom in stereo_atoms, style):
+            continue
         _bond_with_label(
             panel, at[k], direction, length, p.label, ring_boxes.get(k), depth[k] + (0.5 if not axial else 0), style
         )

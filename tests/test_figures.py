@@ -323,3 +323,95 @@ def test_demo_writes_the_gallery(tmp_path):
     assert main(["demo", "--out", str(tmp_path), "--forcefield", "never"]) == 0
     svgs = sorted(p.name for p in tmp_path.glob("*.svg"))
     assert len(svgs) >= 12 and len(list(tmp_path.glob("*.png"))) == len(svgs)
+
+
+# --- the chair as a molfile ---------------------------------------------------------------------
+
+
+def _lift_molfile(block: str, analysis, ring) -> Chem.Mol:
+    """3D from a chair molfile's 2D coordinates (same rules as _lift), stereo perceived by RDKit."""
+    mol = Chem.MolFromMolBlock(block, removeHs=False)
+    assert mol is not None
+    xy = mol.GetConformer()
+    eps = math.radians(ELEVATION_DEG)
+    pts = [(xy.GetAtomPosition(a).x, -xy.GetAtomPosition(a).y) for a in ring.atoms]  # page y down
+    ups = [(-pts[k][1] > -pts[k - 1][1] and -pts[k][1] > -pts[(k + 1) % 6][1]) for k in range(6)]
+    h = _pucker(pts, ups, eps)
+    conf = Chem.Conformer(mol.GetNumAtoms())
+    z_of = {}
+    for k, a in enumerate(ring.atoms):
+        z_of[a] = h if ups[k] else -h
+    ring_3d = []
+    for k, a in enumerate(ring.atoms):
+        x, y = pts[k]
+        ring_3d.append((x, (-y - z_of[a] * math.cos(eps)) / math.sin(eps), z_of[a]))
+        conf.SetAtomPosition(a, Point3D(*ring_3d[-1]))
+    for atom in mol.GetAtoms():
+        i = atom.GetIdx()
+        if i in z_of:
+            continue
+        ring_nbrs = [n.GetIdx() for n in atom.GetNeighbors() if n.GetIdx() in z_of]
+        p = xy.GetAtomPosition(i)
+        if not ring_nbrs:
+            conf.SetAtomPosition(i, Point3D(p.x + 100, p.y, 0))
+            continue
+        r = ring_nbrs[0]
+        k = ring.atoms.index(r)
+        dx, dy = p.x - pts[k][0], p.y - xy.GetAtomPosition(r).y  # dy: up the page
+        if abs(dx) < 1e-3:
+            z = z_of[r] + math.copysign(math.hypot(dx, dy), dy)
+        else:
+            a3, b3 = ring_3d[(k + 1) % 6], ring_3d[(k + 2) % 6]
+            v = tuple(b3[n] - a3[n] for n in range(3))
+            t = dx / v[0] if abs(v[0]) > 1e-6 else dy / (v[2] * math.cos(eps) + v[1] * math.sin(eps))
+            z = z_of[r] + t * v[2]
+        conf.SetAtomPosition(i, Point3D(p.x, (p.y - z * math.cos(eps)) / math.sin(eps), z))
+    mol.RemoveAllConformers()
+    mol.AddConformer(conf, assignId=True)
+    Chem.AssignStereochemistryFrom3D(mol, replaceExistingTags=True)
+    mol.RemoveAllConformers()
+    return Chem.RemoveHs(mol)
+
+
+@pytest.mark.parametrize(
+    "smiles",
+    [
+        "OC[C@H]1O[C@@H](O)[C@H](O)[C@@H](O)[C@@H]1O",  # beta-D-glucopyranose
+        "CC(C)[C@@H]1CC[C@@H](C)C[C@H]1O",  # (-)-menthol
+        "C[C@H]1CC[C@@H](O)CC1",
+        "C[C@@H]1CCCCO1",
+    ],
+)
+@pytest.mark.parametrize("which", ["favored", "flip"])
+def test_chair_molfile_reads_back_as_the_input(smiles, which):
+    from chairdraw.chairmol import chair_molblock
+
+    analysis = chairdraw.analyze(smiles)
+    block = chair_molblock(analysis, chair=which)
+    plain = Chem.MolFromMolBlock(block)
+    assert not any(b.GetBondDir() != Chem.BondDir.NONE for b in plain.GetBonds())
+    assert "/t" not in Chem.MolToInchi(plain)  # plain bonds: RDKit alone reads no stereo from it
+    mol = Chem.MolFromMolBlock(block, removeHs=False)
+    assert all(mol.GetAtomWithIdx(c.atom).GetDegree() == 4 for c in analysis.rings[0].stereo)  # H on centres
+    got = Chem.MolToInchi(_lift_molfile(block, analysis, analysis.rings[0]))
+    assert got == Chem.MolToInchi(Chem.MolFromSmiles(smiles))
+
+
+def test_cli_writes_the_chair_molfile(tmp_path):
+    out = tmp_path / "chair.mol"
+    assert (
+        main(
+            [
+                "draw",
+                "C[C@H]1CC[C@@H](O)CC1",
+                "-o",
+                str(tmp_path / "f.svg"),
+                "--molfile",
+                str(out),
+                "--forcefield",
+                "never",
+            ]
+        )
+        == 0
+    )
+    assert "V2000" in out.read_text() and Chem.MolFromMolFile(str(out)) is not None
