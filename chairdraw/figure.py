@@ -15,7 +15,7 @@ from dataclasses import dataclass, field
 from rdkit import Chem
 
 from .errors import FigureError
-from .labels import NORMAL, SUP
+from .labels import NORMAL, SUP, can_parse
 from .layout import (
     Point,
     Polygon,
@@ -37,6 +37,8 @@ from .molgraph import MolGraph
 from .render import text as fonttext
 from .render.style import CHAIRS, Style
 from .results import Analysis, Chair, RingResult
+from .skeletal import MAX_ATOMS as MAX_SKELETAL_ATOMS
+from .skeletal import draw_groups, group_atoms
 from .substituents import substituent_groups
 
 KJ_PER_KCAL = 4.184
@@ -46,6 +48,7 @@ ARROW_HEAD = 5.0  # pt, length of an equilibrium half-arrow head
 CHAIR_SCALES = (1.0, 1.12, 1.25, 1.4, 1.6, 1.8, 2.0, 2.3, 2.6)
 LENGTHS = (1.0, 0.8, 1.25, 1.5, 0.65, 1.8)  # of the bond length, tried in turn where a label touches
 LABEL_CLEARANCE = 1.0  # pt kept free around a label when placing it (the final check allows 0)
+MAX_LABEL = 8  # characters; a longer condensed label is drawn as a skeletal fragment
 H_BOND = 0.8  # bonds to H are drawn shorter: less clutter beside the groups that matter
 
 
@@ -160,6 +163,7 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
         end = clip_to_box(a, b, ring_boxes[(k + 1) % 6]) if (k + 1) % 6 in ring_boxes else b
         panel.strokes.append(Stroke(start, end, style.line_width, "ring", (depth[k] + depth[(k + 1) % 6]) / 2))
     stereo_atoms = {c.atom for c in ring.stereo}
+    skeletal: list[tuple[int, int, Point]] = []
     hetero_atoms = {a for a in ring.atoms if mol.GetAtomWithIdx(a).GetSymbol() != "C"}
     for p in chair.positions:
         k = ring.atoms.index(p.ring_atom)
@@ -177,8 +181,12 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
         panel.atoms[(p.ring_atom, p.atom)] = (at[k][0] + direction[0] * length, at[k][1] + direction[1] * length)
         if not _shown(p.label, ring.atoms[k] in hetero_atoms, p.ring_atom in stereo_atoms, style):
             continue
+        if p.atom is not None and _skeletal(p, mol):
+            skeletal.append((p.ring_atom, p.atom, panel.atoms[(p.ring_atom, p.atom)]))
+            continue
+        eq_depth = depth[k] + (0.5 if not axial else 0)
         _bond_with_label(
-            panel, at[k], direction, length, p.label, ring_boxes.get(k), depth[k] + (0.5 if not axial else 0), style
+            panel, at[k], direction, length, p.label, ring_boxes.get(k), eq_depth, style, formula=p.estimated
         )
     drawn = {(p.ring_atom, p.atom) for p in chair.positions}
     for atom_idx in ring.trigonal_atoms:
@@ -187,10 +195,29 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
         u1 = _unit((at[(k - 1) % 6][0] - at[k][0], at[(k - 1) % 6][1] - at[k][1]))
         u2 = _unit((at[(k + 1) % 6][0] - at[k][0], at[(k + 1) % 6][1] - at[k][1]))
         out = _unit((-(u1[0] + u2[0]), -(u1[1] + u2[1])))
-        for label, double in _flat_groups(mol, atom_idx, set(ring.atoms), drawn):
+        for label, double, other, estimated in _flat_groups(mol, atom_idx, set(ring.atoms), drawn):
+            reach = style.bond_length * scale
+            end = (at[k][0] + out[0] * reach, at[k][1] + out[1] * reach)
+            panel.atoms[(atom_idx, other)] = end
+            if not double and (estimated or not can_parse(label) or len(label) > MAX_LABEL):
+                if len(group_atoms(mol, atom_idx, other)) <= MAX_SKELETAL_ATOMS:
+                    skeletal.append((atom_idx, other, end))
+                    continue
             _bond_with_label(
-                panel, at[k], out, style.bond_length * scale, label, ring_boxes.get(k), depth[k], style, double
+                panel, at[k], out, reach, label, ring_boxes.get(k), depth[k], style, double, formula=estimated
             )
+    if skeletal:
+        strokes, texts, wedges = draw_groups(
+            mol,
+            {a: at[k] for k, a in enumerate(ring.atoms)},
+            skeletal,
+            style.bond_length * scale,
+            style,
+            {ring.atoms[k]: box for k, box in ring_boxes.items()},
+        )
+        panel.strokes += strokes
+        panel.texts += texts
+        panel.polygons += wedges
     if style.numbering:
         for k in range(6):
             u1 = _unit((at[(k - 1) % 6][0] - at[k][0], at[(k - 1) % 6][1] - at[k][1]))
@@ -207,6 +234,14 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
     return panel, centre
 
 
+def _skeletal(position, mol: Chem.Mol) -> bool:
+    """Whether a group is drawn as a skeletal fragment: it has no condensed label of its own (it
+    was estimated by class, and is named by its formula) and is not too large to draw."""
+    if not position.estimated and can_parse(position.label) and len(position.label) <= MAX_LABEL:
+        return False
+    return len(group_atoms(mol, position.ring_atom, position.atom)) <= MAX_SKELETAL_ATOMS
+
+
 def _shown(label: str, hetero: bool, stereocentre: bool, style: Style) -> bool:
     if label != "H" or hetero:
         return True  # groups, and a heteroatom's H, are always drawn
@@ -214,11 +249,11 @@ def _shown(label: str, hetero: bool, stereocentre: bool, style: Style) -> bool:
 
 
 def _bond_with_label(
-    panel, start, direction, length, label, start_box, depth, style: Style, double: bool = False
+    panel, start, direction, length, label, start_box, depth, style: Style, double: bool = False, formula: bool = False
 ) -> None:
     """A bond from ``start`` with its label at the end; the bond is made shorter or longer (in
     LENGTHS steps) where its label would touch what is already drawn."""
-    reverse = direction[0] < -0.25
+    reverse = direction[0] < -0.25 and not formula  # a molecular formula reads one way only
     runs, span = label_runs(label, reverse)
     best = None
     for factor in LENGTHS:
@@ -263,9 +298,9 @@ def _shrink(b, by: float = 0.3):
     return b[0] + by, b[1] + by, b[2] - by, b[3] - by
 
 
-def _flat_groups(mol: Chem.Mol, atom_idx: int, ring_atoms: set[int], drawn: set) -> list[tuple[str, bool]]:
-    """(label, double bond?) of the exocyclic neighbours of a trigonal ring atom not already drawn
-    as positions: the partner of a C=X, or the group on a planar ring N (acyl, aryl)."""
+def _flat_groups(mol: Chem.Mol, atom_idx: int, ring_atoms: set[int], drawn: set) -> list[tuple[str, bool, int, bool]]:
+    """(label, double bond?, atom, estimated?) of the exocyclic neighbours of a trigonal ring atom
+    not already drawn as positions: the partner of a C=X, or the group on a planar ring N."""
     atom = mol.GetAtomWithIdx(atom_idx)
     out = []
     for bond in atom.GetBonds():
@@ -274,11 +309,13 @@ def _flat_groups(mol: Chem.Mol, atom_idx: int, ring_atoms: set[int], drawn: set)
             continue
         if bond.GetBondType() == Chem.BondType.DOUBLE:
             h = other.GetTotalNumHs()
-            out.append((other.GetSymbol() + ("H" if h else "") + (str(h) if h > 1 else ""), True))
+            out.append(
+                (other.GetSymbol() + ("H" if h else "") + (str(h) if h > 1 else ""), True, other.GetIdx(), False)
+            )
         else:
             graph = MolGraph(mol)
             group = substituent_groups(mol, graph, [(atom_idx, other.GetIdx())])[(atom_idx, other.GetIdx())]
-            out.append((group.label, False))
+            out.append((group.label, False, other.GetIdx(), bool(group.estimated_as)))
     return out
 
 

@@ -415,3 +415,29 @@ def test_cli_writes_the_chair_molfile(tmp_path):
         == 0
     )
     assert "V2000" in out.read_text() and Chem.MolFromMolFile(str(out)) is not None
+
+
+# --- groups drawn as skeletal fragments -------------------------------------------------------
+
+
+def test_a_group_without_a_condensed_label_is_drawn_skeletal_with_its_stereo():
+    smiles = "C[C@@H](O)[C@H]1CC[C@@H](C)CC1"  # a 1-hydroxyethyl group: no table row, estimated
+    analysis = chairdraw.analyze(smiles)
+    assert any(p.estimated for p in analysis.rings[0].chairs[0].positions)
+    figure = draw_analysis(analysis)
+    plain = [t.plain for t in figure.texts]
+    assert not any("C2H5O" in t or "OH5C2" in t for t in plain)  # no formula label
+    assert plain.count("OH") + plain.count("HO") == 2  # the group's O, once per chair
+    marks = [p for p in figure.polygons if p.role == "wedge"] + [s for s in figure.strokes if s.role == "hash"]
+    assert marks  # its stereocentre keeps a wedge or hash
+    panel, _ = chair_panel(analysis, analysis.rings[0], analysis.rings[0].chairs[0], Style())
+    ring_xy = [panel.atoms[(a, a)] for a in analysis.rings[0].atoms]
+    for wedge in (p for p in panel.polygons if p.role == "wedge"):
+        assert min(math.dist(wedge.points[0], q) for q in ring_xy) > 1.0  # never on a chair atom
+
+
+def test_labelled_groups_stay_labels():
+    figure = chairdraw.draw("COC(=O)[C@H]1CC[C@@H](O[Si](C)(C)C(C)(C)C)CC1")
+    plain = {t.plain for t in figure.texts}
+    assert {"OTBS", "TBSO"} & plain and {"CO2Me", "MeO2C"} & plain
+    assert not figure.polygons or all(p.role == "arrow" for p in figure.polygons)

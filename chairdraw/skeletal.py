@@ -1,0 +1,170 @@
+"""Groups too large or too irregular for a condensed label, drawn as skeletal fragments.
+
+RDKit lays the rest of the molecule out around the fixed chair (``Compute2DCoords`` keeps the
+atoms given in ``coordMap`` exactly, with RDKit's own 2D layout left at its default); here the
+chair's ring atoms and the first atom of each such group are pinned where the chair drawing puts
+them, and the group's atoms and bonds are drawn from the result: carbon unlabelled, heteroatoms
+with their hydrogens, multiple bonds as parallel lines.
+"""
+
+from __future__ import annotations
+
+import math
+
+from rdkit import Chem
+from rdkit.Chem import rdDepictor
+from rdkit.Geometry import Point2D
+
+from .labels import NORMAL, SUB, SUP
+from .layout import Point, Polygon, Stroke, Text, TextRun, anchored_label, clip_to_box, symbol_box
+from .render.style import Style
+
+MAX_ATOMS = 40  # a larger group keeps its formula label: a whole second molecule is not a substituent
+RDKIT_BOND = 1.5  # RDKit's depiction bond length
+_SPACING = 0.18  # of the bond length, between the lines of a multiple bond (common practice)
+
+
+def group_atoms(mol: Chem.Mol, ring_atom: int, first: int) -> list[int]:
+    """Heavy atoms reached from ``first`` without passing through ``ring_atom``."""
+    seen = {ring_atom, first}
+    out = [first]
+    for idx in out:
+        for nbr in mol.GetAtomWithIdx(idx).GetNeighbors():
+            j = nbr.GetIdx()
+            if j not in seen and nbr.GetAtomicNum() > 1:
+                seen.add(j)
+                out.append(j)
+    return out
+
+
+def draw_groups(
+    mol: Chem.Mol,
+    ring_points: dict[int, Point],
+    groups: list[tuple[int, int, Point]],
+    bond_pt: float,
+    style: Style,
+    ring_boxes: dict[int, tuple[float, float, float, float]],
+) -> tuple[list[Stroke], list[Text], list[Polygon]]:
+    """Strokes, texts and wedges of each group (ring atom, first atom, where the first atom
+    goes), laid out around the pinned chair; ``bond_pt`` is the drawn length of a bond in points."""
+    k = RDKIT_BOND / bond_pt
+    pinned = {a: Point2D(x * k, -y * k) for a, (x, y) in ring_points.items()}
+    for _, first, (x, y) in groups:
+        pinned[first] = Point2D(x * k, -y * k)
+    heavy = Chem.RemoveHs(mol, sanitize=False) if any(a.GetAtomicNum() == 1 for a in mol.GetAtoms()) else Chem.Mol(mol)
+    try:
+        Chem.Kekulize(heavy, clearAromaticFlags=True)
+    except Chem.KekulizeException:
+        pass  # drawn with the bond orders as they are
+    rdDepictor.Compute2DCoords(heavy, coordMap=pinned)
+    conf = heavy.GetConformer()
+    # stereocentres inside a group keep their configuration on the page as wedges and hashes; the
+    # chair's own atoms get none (the chair drawing itself shows their configuration)
+    for a in ring_points:
+        heavy.GetAtomWithIdx(a).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+    Chem.WedgeMolBonds(heavy, conf)
+
+    def at(i: int) -> Point:
+        p = conf.GetAtomPosition(i)
+        return p.x / k, -p.y / k
+
+    strokes: list[Stroke] = []
+    texts: list[Text] = []
+    wedges: list[Polygon] = []
+    for ring_atom, first, _ in groups:
+        atoms = group_atoms(heavy, ring_atom, first)
+        inside = set(atoms)
+        boxes: dict[int, tuple[float, float, float, float]] = dict(ring_boxes)
+        for i in atoms:
+            atom = heavy.GetAtomWithIdx(i)
+            if atom.GetSymbol() == "C" and not atom.GetFormalCharge():
+                continue
+            here = at(i)
+            # an atom's H goes on the side its bonds do not leave from (HN when the bonds go right)
+            right = sum(1 for n in atom.GetNeighbors() if _x_of(n.GetIdx(), ring_points, at) > here[0] + 0.3 * bond_pt)
+            left = sum(1 for n in atom.GetNeighbors() if _x_of(n.GetIdx(), ring_points, at) < here[0] - 0.3 * bond_pt)
+            runs, span = _atom_runs(atom, h_first=right > left)
+            text = anchored_label(runs, span, here, style.font_size)
+            texts.append(text)
+            boxes[i] = symbol_box(text, span, style.label_gap)
+        bonds = [(ring_atom, first, 1, Chem.BondDir.NONE)]
+        for bond in heavy.GetBonds():
+            a, b = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+            if (a in inside or a == ring_atom) and b in inside or (b == ring_atom and a in inside):
+                if {a, b} == {ring_atom, first}:
+                    bonds[0] = (a, b, 1, bond.GetBondDir())
+                    continue
+                order = {Chem.BondType.DOUBLE: 2, Chem.BondType.TRIPLE: 3}.get(bond.GetBondType(), 1)
+                bonds.append((a, b, order, bond.GetBondDir()))
+        for a, b, order, direction in bonds:
+            pa = ring_points[a] if a in ring_points else at(a)
+            pb = ring_points[b] if b in ring_points else at(b)
+            if direction in (Chem.BondDir.BEGINWEDGE, Chem.BondDir.BEGINDASH):
+                lines, polygon = _wedge(pa, pb, direction == Chem.BondDir.BEGINWEDGE, boxes.get(a), boxes.get(b), style)
+                strokes += lines
+                wedges += polygon
+            else:
+                strokes += _bond_lines(pa, pb, order, boxes.get(a), boxes.get(b), bond_pt, style)
+    return strokes, texts, wedges
+
+
+WEDGE_WIDTH = 2.4  # pt at the wide end (about a sixth of the bond length, common practice)
+HASH_LINES = 6
+
+
+def _wedge(a: Point, b: Point, solid: bool, box_a, box_b, style: Style) -> tuple[list[Stroke], list[Polygon]]:
+    """A wedge (solid) or hash from a (narrow end, the stereocentre) to b."""
+    start = clip_to_box(b, a, box_a) if box_a else a
+    end = clip_to_box(start, b, box_b) if box_b else b
+    length = math.dist(start, end) or 1.0
+    nx, ny = -(end[1] - start[1]) / length * WEDGE_WIDTH / 2, (end[0] - start[0]) / length * WEDGE_WIDTH / 2
+    if solid:
+        return [], [Polygon((start, (end[0] + nx, end[1] + ny), (end[0] - nx, end[1] - ny)), "wedge")]
+    lines = []
+    for n in range(1, HASH_LINES + 1):
+        t = n / HASH_LINES
+        c = (start[0] + (end[0] - start[0]) * t, start[1] + (end[1] - start[1]) * t)
+        lines.append(Stroke((c[0] + nx * t, c[1] + ny * t), (c[0] - nx * t, c[1] - ny * t), style.line_width, "hash"))
+    return lines, []
+
+
+def _x_of(i: int, ring_points: dict[int, Point], at) -> float:
+    return ring_points[i][0] if i in ring_points else at(i)[0]
+
+
+def _atom_runs(atom: Chem.Atom, h_first: bool = False) -> tuple[tuple[TextRun, ...], tuple[int, int]]:
+    """Runs of a heteroatom's label with its H count, and the span of the element symbol."""
+    symbol = atom.GetSymbol()
+    h = atom.GetTotalNumHs()
+    hydrogens = [TextRun("H", NORMAL)] + ([TextRun(str(h), SUB)] if h > 1 else []) if h else []
+    if h_first and hydrogens:
+        runs = hydrogens + [TextRun(symbol, NORMAL)]
+        start = 1 + (len(str(h)) if h > 1 else 0)
+    else:
+        runs = [TextRun(symbol, NORMAL)] + hydrogens
+        start = 0
+    charge = atom.GetFormalCharge()
+    if charge:
+        sign = "+" if charge > 0 else "\u2212"
+        runs.append(TextRun((str(abs(charge)) if abs(charge) > 1 else "") + sign, SUP))
+    merged: list[TextRun] = []
+    for r in runs:
+        if merged and merged[-1].kind == r.kind:
+            merged[-1] = TextRun(merged[-1].text + r.text, r.kind)
+        else:
+            merged.append(r)
+    return tuple(merged), (start, start + len(symbol))
+
+
+def _bond_lines(a: Point, b: Point, order: int, box_a, box_b, bond_pt: float, style: Style) -> list[Stroke]:
+    length = math.dist(a, b) or 1.0
+    nx, ny = -(b[1] - a[1]) / length, (b[0] - a[0]) / length
+    offsets = {1: (0.0,), 2: (-0.5, 0.5), 3: (-1.0, 0.0, 1.0)}[order]
+    out = []
+    for o in offsets:
+        d = o * _SPACING * bond_pt
+        p, q = (a[0] + nx * d, a[1] + ny * d), (b[0] + nx * d, b[1] + ny * d)
+        start = clip_to_box(q, p, box_a) if box_a else p
+        end = clip_to_box(start, q, box_b) if box_b else q
+        out.append(Stroke(start, end, style.line_width, "bond" if order == 1 else "double"))
+    return out
