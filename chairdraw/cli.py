@@ -63,6 +63,7 @@ def _parser() -> argparse.ArgumentParser:
             "--hydrogens", choices=HYDROGENS, default=None, help="H atoms drawn: none, on stereocentres, all"
         )
         q.add_argument("--numbering", action="store_true", help="ring locants inside the ring")
+        q.add_argument("--show-flat", action="store_true", help="the flat input (wedges, hashes) beside the chairs")
         q.add_argument("--style", metavar="FILE.toml", help="style settings (sizes in pt) from a TOML file")
         q.add_argument("--bond-length", type=float, metavar="PT", help="bond length in pt (14.4)")
         q.add_argument("--line-width", type=float, metavar="PT", help="line width in pt (0.6)")
@@ -146,7 +147,7 @@ def _draw(args, analyzer: Analyzer) -> int:
     output_type(args.output)  # a bad file name is a usage error before any work
     result = _read_and_analyze(args, analyzer)
     try:
-        figure = draw_analysis(result, style, args.chair, args.ring, args.caption)
+        figure = draw_analysis(result, style, args.chair, args.ring, args.caption, args.show_flat)
         figure.save(args.output, dpi=args.dpi)
         if args.molfile:
             block = chair_molblock(result, args.ring or 0, "flip" if args.chair == "flip" else "favored", style)
@@ -185,7 +186,7 @@ def _demo(args, analyzer: Analyzer) -> int:
     for smiles, record in demo_records():
         result = analyzer.analyze(read(smiles, record=record))
         if args.out and result.rings:
-            figure = draw_analysis(result, style, args.chair, caption=record)
+            figure = draw_analysis(result, style, args.chair, caption=record, show_flat=args.show_flat)
             stem = "".join(c if c.isalnum() or c in "-_" else "_" for c in record.split()[0])
             for kind in ("svg", "png"):
                 figure.save(os.path.join(args.out, f"{stem}.{kind}"), dpi=args.dpi)

@@ -38,7 +38,7 @@ from .render import text as fonttext
 from .render.style import CHAIRS, Style
 from .results import Analysis, Chair, RingResult
 from .skeletal import MAX_ATOMS as MAX_SKELETAL_ATOMS
-from .skeletal import draw_groups, group_atoms
+from .skeletal import draw_flat, draw_groups, group_atoms
 from .substituents import substituent_groups
 
 KJ_PER_KCAL = 4.184
@@ -429,14 +429,37 @@ def row_heading(ring: RingResult, rows: int) -> str | None:
     return "; ".join(parts) or None
 
 
+FLAT_GAP = 24.0  # pt between the flat input and the chairs
+
+
+def flat_panel(analysis: Analysis, style: Style) -> _Panel:
+    """The input as drawn flat (hexagon, wedges and hashes), with a caption saying so."""
+    strokes, texts, wedges = draw_flat(analysis.mol, style.bond_length, style)
+    panel = _Panel(strokes, texts, wedges)
+    x0, _, x1, y1 = panel.box()
+    panel.texts.append(
+        centred_text(
+            (TextRun("as drawn", NORMAL),),
+            (x0 + x1) / 2,
+            y1 + 1.6 * style.caption_size,
+            style.caption_size,
+            "regular",
+            "caption",
+        )
+    )
+    return panel
+
+
 def draw_analysis(
     analysis: Analysis,
     style: Style | None = None,
     chairs: str = "both",
     ring: int | None = None,
     caption: str | None = None,
+    show_flat: bool = False,
 ) -> Figure:
-    """The figure of an analysis: every ring result as a row (or only result ``ring``, 0-based)."""
+    """The figure of an analysis: every ring result as a row (or only result ``ring``, 0-based),
+    with the flat input on the left when ``show_flat``."""
     style = style or Style()
     results = list(analysis.rings)
     if not results:
@@ -454,6 +477,12 @@ def draw_analysis(
         x0, y0, _, y1 = row.box()
         whole.add(row.moved(-x0, y - y0))
         y += y1 - y0 + style.row_spacing
+    if show_flat:
+        flat = flat_panel(analysis, style)
+        fx0, fy0, fx1, fy1 = flat.box()
+        wx0, wy0, _, wy1 = whole.box()
+        whole = whole.moved(fx1 - fx0 + FLAT_GAP - wx0, 0.0)
+        whole.add(flat.moved(-fx0, (wy0 + wy1) / 2 - (fy0 + fy1) / 2))
     if caption:
         _, _, _, y1 = whole.box()
         whole.texts.append(
@@ -489,6 +518,7 @@ def draw(
     style: Style | None = None,
     ring: int | None = None,
     caption: str | None = None,
+    show_flat: bool = False,
     temperature: float = 298.15,
     solvent: str = "aprotic",
     format: str | None = None,
@@ -498,7 +528,7 @@ def draw(
         from .analyze import analyze
 
         structure = analyze(structure, temperature=temperature, solvent=solvent, format=format)
-    return draw_analysis(structure, style, chairs, ring, caption)
+    return draw_analysis(structure, style, chairs, ring, caption, show_flat)
 
 
 def _description(analysis: Analysis, results: list[RingResult], style: Style) -> str:

@@ -65,6 +65,8 @@ def draw_groups(
     Chem.WedgeMolBonds(heavy, conf)
 
     def at(i: int) -> Point:
+        if i in ring_points:
+            return ring_points[i]
         p = conf.GetAtomPosition(i)
         return p.x / k, -p.y / k
 
@@ -73,39 +75,100 @@ def draw_groups(
     wedges: list[Polygon] = []
     for ring_atom, first, _ in groups:
         atoms = group_atoms(heavy, ring_atom, first)
-        inside = set(atoms)
-        boxes: dict[int, tuple[float, float, float, float]] = dict(ring_boxes)
-        for i in atoms:
-            atom = heavy.GetAtomWithIdx(i)
-            if atom.GetSymbol() == "C" and not atom.GetFormalCharge():
-                continue
-            here = at(i)
-            # an atom's H goes on the side its bonds do not leave from (HN when the bonds go right)
-            right = sum(1 for n in atom.GetNeighbors() if _x_of(n.GetIdx(), ring_points, at) > here[0] + 0.3 * bond_pt)
-            left = sum(1 for n in atom.GetNeighbors() if _x_of(n.GetIdx(), ring_points, at) < here[0] - 0.3 * bond_pt)
-            runs, span = _atom_runs(atom, h_first=right > left)
-            text = anchored_label(runs, span, here, style.font_size)
-            texts.append(text)
-            boxes[i] = symbol_box(text, span, style.label_gap)
-        bonds = [(ring_atom, first, 1, Chem.BondDir.NONE)]
-        for bond in heavy.GetBonds():
-            a, b = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
-            if (a in inside or a == ring_atom) and b in inside or (b == ring_atom and a in inside):
-                if {a, b} == {ring_atom, first}:
-                    bonds[0] = (a, b, 1, bond.GetBondDir())
-                    continue
-                order = {Chem.BondType.DOUBLE: 2, Chem.BondType.TRIPLE: 3}.get(bond.GetBondType(), 1)
-                bonds.append((a, b, order, bond.GetBondDir()))
-        for a, b, order, direction in bonds:
-            pa = ring_points[a] if a in ring_points else at(a)
-            pb = ring_points[b] if b in ring_points else at(b)
-            if direction in (Chem.BondDir.BEGINWEDGE, Chem.BondDir.BEGINDASH):
-                lines, polygon = _wedge(pa, pb, direction == Chem.BondDir.BEGINWEDGE, boxes.get(a), boxes.get(b), style)
-                strokes += lines
-                wedges += polygon
-            else:
-                strokes += _bond_lines(pa, pb, order, boxes.get(a), boxes.get(b), bond_pt, style)
+        drawn = _draw(heavy, at, atoms, {ring_atom}, dict(ring_boxes), bond_pt, style)
+        strokes += drawn[0]
+        texts += drawn[1]
+        wedges += drawn[2]
     return strokes, texts, wedges
+
+
+def draw_flat(mol: Chem.Mol, bond_pt: float, style: Style) -> tuple[list[Stroke], list[Text], list[Polygon]]:
+    """The flat input as chemists draw it: rings as regular polygons, wedges and hashes. A molfile's
+    own coordinates and wedges are kept; otherwise RDKit lays it out and picks the wedges."""
+    heavy = Chem.RemoveHs(mol, sanitize=False) if any(a.GetAtomicNum() == 1 for a in mol.GetAtoms()) else Chem.Mol(mol)
+    flat = heavy.GetNumConformers() and not heavy.GetConformer().Is3D()
+    if (
+        flat
+        and heavy.GetNumBonds()
+        and any(b.HasProp("_MolFileBondStereo") or b.HasProp("_MolFileBondCfg") for b in heavy.GetBonds())
+    ):
+        Chem.ReapplyMolBlockWedging(heavy)
+    else:
+        if not flat:
+            rdDepictor.Compute2DCoords(heavy)
+        Chem.WedgeMolBonds(heavy, heavy.GetConformer())
+    wedging = {b.GetIdx(): b.GetBondDir() for b in heavy.GetBonds()}
+    try:
+        Chem.Kekulize(heavy, clearAromaticFlags=True)
+    except Chem.KekulizeException:
+        pass
+    for b in heavy.GetBonds():  # kekulizing can clear directions; the drawn wedges are the ones chosen above
+        b.SetBondDir(wedging[b.GetIdx()])
+    conf = heavy.GetConformer()
+    lengths = [
+        (conf.GetAtomPosition(b.GetBeginAtomIdx()) - conf.GetAtomPosition(b.GetEndAtomIdx())).Length()
+        for b in heavy.GetBonds()
+    ]
+    k = (sum(lengths) / len(lengths) if lengths else 1.0) / bond_pt
+
+    def at(i: int) -> Point:
+        p = conf.GetAtomPosition(i)
+        return p.x / k, -p.y / k
+
+    return _draw(heavy, at, list(range(heavy.GetNumAtoms())), set(), {}, bond_pt, style)
+
+
+def _draw(heavy: Chem.Mol, at, atoms: list[int], anchors: set[int], boxes: dict, bond_pt: float, style: Style):
+    """Atoms ``atoms`` of ``heavy`` at ``at(i)``, with their bonds among themselves and to the
+    already drawn ``anchors`` (whose label boxes are in ``boxes``, keyed by atom)."""
+    strokes: list[Stroke] = []
+    texts: list[Text] = []
+    wedges: list[Polygon] = []
+    inside = set(atoms)
+    for i in atoms:
+        atom = heavy.GetAtomWithIdx(i)
+        if atom.GetSymbol() == "C" and not atom.GetFormalCharge() and atom.GetDegree() > 0:
+            continue
+        here = at(i)
+        # an atom's H goes on the side its bonds do not leave from (HN when the bonds go right)
+        xs = [at(n.GetIdx())[0] for n in atom.GetNeighbors()]
+        right = sum(1 for x in xs if x > here[0] + 0.3 * bond_pt)
+        left = sum(1 for x in xs if x < here[0] - 0.3 * bond_pt)
+        runs, span = _atom_runs(atom, h_first=right > left)
+        text = anchored_label(runs, span, here, style.font_size)
+        texts.append(text)
+        boxes[i] = symbol_box(text, span, style.label_gap)
+    for bond in heavy.GetBonds():
+        a, b = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+        if not ((a in inside or a in anchors) and (b in inside or b in anchors)) or (a in anchors and b in anchors):
+            continue
+        order = {Chem.BondType.DOUBLE: 2, Chem.BondType.TRIPLE: 3}.get(bond.GetBondType(), 1)
+        pa, pb = at(a), at(b)
+        direction = bond.GetBondDir()
+        if direction in (Chem.BondDir.BEGINWEDGE, Chem.BondDir.BEGINDASH):
+            lines, polygon = _wedge(pa, pb, direction == Chem.BondDir.BEGINWEDGE, boxes.get(a), boxes.get(b), style)
+            strokes += lines
+            wedges += polygon
+        elif direction == Chem.BondDir.UNKNOWN:
+            strokes += _wavy(pa, pb, boxes.get(a), boxes.get(b), style)
+        else:
+            strokes += _bond_lines(pa, pb, order, boxes.get(a), boxes.get(b), bond_pt, style)
+    return strokes, texts, wedges
+
+
+def _wavy(a: Point, b: Point, box_a, box_b, style: Style) -> list[Stroke]:
+    """A wavy bond (unknown configuration) as a small zigzag."""
+    start = clip_to_box(b, a, box_a) if box_a else a
+    end = clip_to_box(start, b, box_b) if box_b else b
+    length = math.dist(start, end) or 1.0
+    nx, ny = -(end[1] - start[1]) / length * 1.2, (end[0] - start[0]) / length * 1.2
+    steps = max(4, int(length / 2.0))
+    points = []
+    for n in range(steps + 1):
+        t = n / steps
+        side = 0 if n in (0, steps) else (1 if n % 2 else -1)
+        points.append((start[0] + (end[0] - start[0]) * t + nx * side, start[1] + (end[1] - start[1]) * t + ny * side))
+    return [Stroke(p, q, style.line_width, "wavy") for p, q in zip(points, points[1:])]
 
 
 WEDGE_WIDTH = 2.4  # pt at the wide end (about a sixth of the bond length, common practice)
@@ -126,10 +189,6 @@ def _wedge(a: Point, b: Point, solid: bool, box_a, box_b, style: Style) -> tuple
         c = (start[0] + (end[0] - start[0]) * t, start[1] + (end[1] - start[1]) * t)
         lines.append(Stroke((c[0] + nx * t, c[1] + ny * t), (c[0] - nx * t, c[1] - ny * t), style.line_width, "hash"))
     return lines, []
-
-
-def _x_of(i: int, ring_points: dict[int, Point], at) -> float:
-    return ring_points[i][0] if i in ring_points else at(i)[0]
 
 
 def _atom_runs(atom: Chem.Atom, h_first: bool = False) -> tuple[tuple[TextRun, ...], tuple[int, int]]:

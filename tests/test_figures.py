@@ -441,3 +441,18 @@ def test_labelled_groups_stay_labels():
     plain = {t.plain for t in figure.texts}
     assert {"OTBS", "TBSO"} & plain and {"CO2Me", "MeO2C"} & plain
     assert not figure.polygons or all(p.role == "arrow" for p in figure.polygons)
+
+
+def test_show_flat_adds_the_input_as_drawn(tmp_path):
+    from rdkit.Chem import AllChem
+
+    mol = Chem.MolFromSmiles("C[C@H]1CC[C@@H](O)CC1")
+    AllChem.Compute2DCoords(mol)
+    path = tmp_path / "in.mol"
+    path.write_text(Chem.MolToMolBlock(mol))  # the file's own wedges are drawn
+    plain = draw_analysis(chairdraw.analyze(str(path)))
+    flat = draw_analysis(chairdraw.analyze(str(path)), show_flat=True)
+    assert flat.width > plain.width
+    assert "as drawn" in {t.plain for t in flat.texts}
+    wedges = [p for p in flat.polygons if p.role == "wedge"] + [s for s in flat.strokes if s.role == "hash"]
+    assert wedges and clashes(list(flat.strokes), list(flat.texts)) == []
