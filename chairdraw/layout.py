@@ -308,16 +308,16 @@ def crossing(p1: Point, p2: Point, q1: Point, q2: Point) -> Point | None:
 
 
 def with_gaps(strokes: list[Stroke], gap: float) -> list[Stroke]:
-    """Ring bonds behind a crossing stroke are cut around the crossing (a depth cue, and it keeps
-    an inner axial bond readable where it passes in front of the far side of the ring)."""
+    """A ring bond or a bond to a group that passes behind another is cut around the crossing (the
+    usual depth cue: an axial bond in front of the far side of the ring, or behind its near side)."""
     out: list[Stroke] = []
     for s in strokes:
-        if s.role != "ring":
+        if s.role not in ("ring", "bond"):
             out.append(s)
             continue
         cuts = []
         for o in strokes:
-            if o is s or o.depth <= s.depth:
+            if o is s or o.depth <= s.depth or o.role not in ("ring", "bond", "double"):
                 continue
             at = crossing(s.start, s.end, o.start, o.end)
             if at is not None:

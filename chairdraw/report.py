@@ -109,6 +109,17 @@ def _signed(kcal: float, units: str) -> str:
     return f"{value:+.2f} {'kJ' if units == 'kJ' else 'kcal'}/mol"
 
 
+def caveats(ring) -> list[str]:
+    """Short warnings that can change the answer itself, for summary lines and figures."""
+    out = []
+    if any("twist-boat" in w for w in ring.warnings):
+        out.append("twist-boat likely")
+    if any("A(1,3) strain" in w for w in ring.warnings):
+        # the one effect the tables miss that can reverse the answer
+        out.append("A(1,3) strain (not modelled) may put the group beside the planar N axial")
+    return out
+
+
 def summary_line(analysis: Analysis, units: str = "kcal") -> str:
     """One line per ring: id, ring kind, favoured chair, ΔG, population of the favoured chair."""
     title = analysis.record or analysis.source
@@ -128,11 +139,8 @@ def summary_line(analysis: Analysis, units: str = "kcal") -> str:
                 f"{ring.kind}{cfg}: {fav.name} favoured by {energy_text(ring.delta_g_kcal_mol, units)} "
                 f"({percent(fav.population)} %), axial: {axial}"
             )
-        if any("twist-boat" in w for w in ring.warnings):
-            text += ", twist-boat likely"
-        if any("A(1,3) strain" in w for w in ring.warnings):
-            # the one effect the tables miss that can reverse the answer: say so on the line itself
-            text += ", but A(1,3) strain (not modelled) may put the group beside the planar N axial"
+        for caveat in caveats(ring):
+            text += f", but {caveat}" if caveat.startswith("A(1,3)") else f", {caveat}"
         if ring.warnings:
             text += f" ({len(ring.warnings)} warning{'s' if len(ring.warnings) > 1 else ''}: see --full)"
         parts.append(text)

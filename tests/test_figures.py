@@ -266,7 +266,8 @@ def test_analysis_shows_itself_in_jupyter():
 def test_units_kj():
     figure = draw_analysis(chairdraw.analyze("CC1CCCCC1"), Style(units="kJ"))
     energy = next(t.plain for t in figure.texts if t.role == "energy")
-    assert energy.endswith("kJ/mol") and abs(float(energy.split()[2]) - 1.74 * 4.184) < 0.1  # Me A-value 1.74
+    assert energy.startswith("\u0394G(298 K) = ") and energy.endswith("kJ/mol")
+    assert abs(float(energy.split("=")[1].split()[0]) - 1.74 * 4.184) < 0.1  # Me A-value 1.74 kcal/mol
 
 
 def test_single_chair_choices():

@@ -33,6 +33,7 @@ class Style:
     hydrogens: str = "stereo"  # none | stereo (on stereocentres) | all
     units: str = "kcal"  # kcal | kJ
     numbering: bool = False  # ring locants beside the ring atoms
+    chair_scale: float = 0.0  # chairs drawn at this multiple of bond_length; 0: as large as labels need
 
     def __post_init__(self):
         for f in fields(self):
