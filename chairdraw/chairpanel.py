@@ -85,22 +85,22 @@ class Panel:
         self.polygons += other.polygons
 
 
-def needed_scale(analysis: Analysis, ring: RingResult, chair: Chair, style: Style) -> float:
-    """The smallest of CHAIR_SCALES at which nothing in the chair touches; where none is free of
-    clashes, the one with the fewest (the smaller on a tie)."""
+def needed_scale(analysis: Analysis, chairs: list[tuple[RingResult, Chair]], style: Style) -> float:
+    """One scale for all ``chairs`` (ring result, chair) of a figure: the smallest of
+    CHAIR_SCALES at which nothing in any of them touches; where there is none, the one with the
+    fewest clashes (the smaller on a tie). ``style.chair_scale``, when set, wins."""
     if style.chair_scale:
         return style.chair_scale
     best = (math.inf, CHAIR_SCALES[0])
     for scale in CHAIR_SCALES:
-        count = len(clashes(*_drawn(chair_panel(analysis, ring, chair, style, scale)[0])))
+        count = 0
+        for ring, chair in chairs:
+            panel = _chair_at(analysis, ring, chair, style, scale)[0]
+            count += len(clashes(panel.strokes, panel.texts))
         if count == 0:
             return scale
         best = min(best, (count, scale))
     return best[1]
-
-
-def _drawn(panel: Panel) -> tuple[list[Stroke], list[Text]]:
-    return panel.strokes, panel.texts
 
 
 def chair_panel(
@@ -109,7 +109,7 @@ def chair_panel(
     """One chair with its substituents, and the centre of its ring (both in points, y down), at
     ``scale`` times the style's bond length (by default the scale ``needed_scale`` finds)."""
     if scale is None:
-        scale = needed_scale(analysis, ring, chair, style)
+        scale = needed_scale(analysis, [(ring, chair)], style)
     return _chair_at(analysis, ring, chair, style, scale)
 
 
@@ -143,9 +143,9 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
         panel.strokes.append(Stroke(start, end, style.line_width, "ring", (depth[k] + depth[(k + 1) % 6]) / 2))
     stereo_atoms = {c.atom for c in ring.stereo}
     skeletal: list[tuple[int, int, Point]] = []
+    labelled: list[tuple] = []  # arguments of _bond_with_label, drawn after the skeletal groups
     hetero_atoms = {a for a in ring.atoms if mol.GetAtomWithIdx(a).GetSymbol() != "C"}
-    # groups first, H last: an H label gives way (a shorter or longer bond) to the groups around it
-    for p in sorted(chair.positions, key=lambda q: q.label == "H"):
+    for p in chair.positions:
         k = ring.atoms.index(p.ring_atom)
         if p.label == "lone pair":
             continue
@@ -165,9 +165,7 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
             skeletal.append((p.ring_atom, p.atom, panel.atoms[(p.ring_atom, p.atom)]))
             continue
         eq_depth = depth[k] + (0.5 if not axial else 0)
-        _bond_with_label(
-            panel, at[k], direction, length, p.label, ring_boxes.get(k), eq_depth, style, formula=p.estimated
-        )
+        labelled.append((at[k], direction, length, p.label, ring_boxes.get(k), eq_depth, False, p.estimated))
     drawn = {(p.ring_atom, p.atom) for p in chair.positions}
     for atom_idx in ring.trigonal_atoms:
         # a C=O, C=CH2 or the group on a planar N: in the ring's plane, along the outer bisector
@@ -183,9 +181,9 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
                 if len(group_atoms(mol, atom_idx, other)) <= MAX_SKELETAL_ATOMS:
                     skeletal.append((atom_idx, other, end))
                     continue
-            _bond_with_label(
-                panel, at[k], out, reach, label, ring_boxes.get(k), depth[k], style, double, formula=estimated
-            )
+            labelled.append((at[k], out, reach, label, ring_boxes.get(k), depth[k], double, estimated))
+    # skeletal groups first (RDKit places their atoms), then labels around them, H last: an H
+    # label gives way (a shorter or longer bond, or none) to the groups around it
     if skeletal:
         strokes, texts, wedges = draw_groups(
             mol,
@@ -198,6 +196,10 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
         panel.strokes += strokes
         panel.texts += texts
         panel.polygons += wedges
+    for start, direction, length, label, box, bond_depth, double, formula in sorted(
+        labelled, key=lambda a: a[3] == "H"
+    ):
+        _bond_with_label(panel, start, direction, length, label, box, bond_depth, style, double, formula)
     if style.numbering:
         _number(panel, ring, at, s, style)
     for k, atom_idx in enumerate(ring.atoms):

@@ -19,7 +19,7 @@ from .demo import demo_records
 from .errors import ChairdrawError, FigureError
 from .figure import draw_analysis
 from .read import FORMATS, read, read_text
-from .render.export import output_type
+from .render.export import check_dpi, output_type
 from .render.style import CHAIRS, HYDROGENS, Style, load_style
 from .report import DISCLAIMER, format_analysis, summary_line
 
@@ -144,7 +144,8 @@ def _read_and_analyze(args, analyzer: Analyzer):
 
 def _draw(args, analyzer: Analyzer) -> int:
     style = _style(args)
-    output_type(args.output)  # a bad file name is a usage error before any work
+    output_type(args.output)  # a bad file name or dpi is a usage error before any work
+    check_dpi(args.dpi)
     result = _read_and_analyze(args, analyzer)
     try:
         figure = draw_analysis(result, style, args.chair, args.ring, args.caption, args.show_flat)
@@ -181,8 +182,12 @@ def _analyze(args, analyzer: Analyzer) -> int:
 def _demo(args, analyzer: Analyzer) -> int:
     rows = []
     style = _style(args)
+    check_dpi(args.dpi)
     if args.out:
-        os.makedirs(args.out, exist_ok=True)
+        try:
+            os.makedirs(args.out, exist_ok=True)
+        except OSError as exc:
+            raise FigureError(f"cannot make the gallery directory {args.out!r}: {exc.strerror}") from None
     for smiles, record in demo_records():
         result = analyzer.analyze(read(smiles, record=record))
         if args.out and result.rings:

@@ -50,13 +50,13 @@ class Figure:
         """The figure as SVG, PNG or PDF bytes."""
         from .render.export import render
 
-        return render(self.svg(), kind, dpi)
+        return render(self.svg(), kind, dpi, (self.width, self.height))
 
     def save(self, path, dpi: float = 300.0):
         """Write the figure; the type follows the file name (.svg, .png, .pdf)."""
         from .render.export import write
 
-        return write(self.svg(), path, dpi)
+        return write(self.svg(), path, dpi, (self.width, self.height))
 
 
 # --- rows and the whole figure -------------------------------------------------------------------
@@ -228,8 +228,8 @@ def draw_analysis(
         results = [results[ring]]
     whole = Panel()
     y = 0.0
-    # one size for every chair of the figure: the largest any of them needs to stay free of clashes
-    scale = max(needed_scale(analysis, r, r.chairs[i], style) for r in results for i in shown_chairs(r, chairs))
+    # one size for every chair of the figure: the smallest at which none of them has a clash
+    scale = needed_scale(analysis, [(r, r.chairs[i]) for r in results for i in shown_chairs(r, chairs)], style)
     distinct = list(dict.fromkeys(r.atoms for r in analysis.rings))  # configurations share a ring
     for r in results:
         row = ring_row(analysis, r, style, chairs, row_heading(r, distinct.index(r.atoms) + 1, len(results)), scale)

@@ -17,6 +17,7 @@ from rdkit.Geometry import Point2D
 
 from .labels import NORMAL, SUB, SUP
 from .layout import Point, Polygon, Stroke, Text, TextRun, anchored_label, clip_to_box, symbol_box
+from .render import text as fonttext
 from .render.style import Style
 
 MAX_ATOMS = 40  # a larger group keeps its formula label: a whole second molecule is not a substituent
@@ -134,10 +135,21 @@ def _draw(heavy: Chem.Mol, at, atoms: list[int], anchors: set[int], boxes: dict,
         xs = [at(n.GetIdx())[0] for n in atom.GetNeighbors()]
         right = sum(1 for x in xs if x > here[0] + 0.3 * bond_pt)
         left = sum(1 for x in xs if x < here[0] - 0.3 * bond_pt)
-        runs, span = _atom_runs(atom, h_first=right > left)
+        if left and right and atom.GetTotalNumHs():
+            # bonds on both sides: the H goes above or below, where no bond leaves
+            ys = [at(n.GetIdx())[1] for n in atom.GetNeighbors()]
+            below = sum(1 for y in ys if y > here[1]) <= sum(1 for y in ys if y < here[1])
+            texts.append(_hydrogens_off_axis(atom, here, below, style))
+            runs, span = _atom_runs(atom, h_first=False, hydrogens=False)
+        else:
+            runs, span = _atom_runs(atom, h_first=right > left)
         text = anchored_label(runs, span, here, style.font_size)
         texts.append(text)
-        boxes[i] = symbol_box(text, span, style.label_gap)
+        x0, y0, x1, y1 = symbol_box(text, span, style.label_gap)
+        if atom.GetFormalCharge():  # the charge sits up and right of the symbol: bonds stop short of it too
+            x1 = max(x1, text.extent()[2] + style.label_gap)
+            y0 = min(y0, text.extent()[1] - style.label_gap)
+        boxes[i] = (x0, y0, x1, y1)
     for bond in heavy.GetBonds():
         a, b = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
         if not ((a in inside or a in anchors) and (b in inside or b in anchors)) or (a in anchors and b in anchors):
@@ -191,10 +203,19 @@ def _wedge(a: Point, b: Point, solid: bool, box_a, box_b, style: Style) -> tuple
     return lines, []
 
 
-def _atom_runs(atom: Chem.Atom, h_first: bool = False) -> tuple[tuple[TextRun, ...], tuple[int, int]]:
+def _hydrogens_off_axis(atom: Chem.Atom, here: Point, below: bool, style: Style) -> Text:
+    h = atom.GetTotalNumHs()
+    runs = (TextRun("H", NORMAL),) + ((TextRun(str(h), SUB),) if h > 1 else ())
+    step = fonttext.metrics().cap_height * style.font_size + 2 * style.label_gap
+    return anchored_label(runs, (0, 1), (here[0], here[1] + (step if below else -step)), style.font_size)
+
+
+def _atom_runs(
+    atom: Chem.Atom, h_first: bool = False, hydrogens: bool = True
+) -> tuple[tuple[TextRun, ...], tuple[int, int]]:
     """Runs of a heteroatom's label with its H count, and the span of the element symbol."""
     symbol = atom.GetSymbol()
-    h = atom.GetTotalNumHs()
+    h = atom.GetTotalNumHs() if hydrogens else 0
     hydrogens = [TextRun("H", NORMAL)] + ([TextRun(str(h), SUB)] if h > 1 else []) if h else []
     if h_first and hydrogens:
         runs = hydrogens + [TextRun(symbol, NORMAL)]

@@ -16,6 +16,20 @@ from pathlib import Path
 from ..errors import FigureError
 
 HYDROGENS = ("none", "stereo", "all")
+# upper bounds of the sizes (pt, or a multiple for chair_scale): beyond them a figure is no longer
+# a figure (and cairo's 32767-pixel limit is hit at print resolutions)
+LARGEST = {
+    "bond_length": 144.0,
+    "line_width": 10.0,
+    "font_size": 72.0,
+    "caption_size": 72.0,
+    "label_gap": 20.0,
+    "margin": 144.0,
+    "chair_spacing": 720.0,
+    "row_spacing": 720.0,
+    "crossing_gap": 20.0,
+    "chair_scale": 5.0,
+}
 CHAIRS = ("both", "favored", "flip")
 
 
@@ -38,8 +52,16 @@ class Style:
     def __post_init__(self):
         for f in fields(self):
             value = getattr(self, f.name)
-            if f.type == "float" and not (isinstance(value, int | float) and math.isfinite(value) and value >= 0):
-                raise FigureError(f"style {f.name} must be a finite number of points >= 0, not {value!r}")
+            if f.type == "float":
+                number = isinstance(value, int | float) and not isinstance(value, bool)
+                if not (number and math.isfinite(value) and 0 <= value <= LARGEST[f.name]):
+                    raise FigureError(
+                        f"style {f.name} must be a number from 0 to {LARGEST[f.name]:g}, not {str(value)[:24]!r}"
+                    )
+            elif f.type == "bool" and not isinstance(value, bool):
+                raise FigureError(f"style {f.name} must be true or false, not {str(value)[:24]!r}")
+            elif f.type == "str" and not isinstance(value, str):
+                raise FigureError(f"style {f.name} must be text, not {str(value)[:24]!r}")
         if self.bond_length <= 0 or self.font_size <= 0 or self.caption_size <= 0:
             raise FigureError("style bond_length, font_size and caption_size must be above 0")
         if self.hydrogens not in HYDROGENS:
@@ -65,4 +87,6 @@ def load_style(path: str | Path, base: Style | None = None) -> Style:
     except tomllib.TOMLDecodeError as exc:
         raise FigureError(f"style file {str(path)!r} is not valid TOML: {exc}") from None
     data = data.get("style", data)  # a [style] table, or the settings at top level
+    if not isinstance(data, dict):
+        raise FigureError(f"style file {str(path)!r}: 'style' must be a table of settings ([style])")
     return (base or Style()).replace(**data)

@@ -14,13 +14,21 @@ from ..layout import SUB_DROP, SUB_SCALE, SUP_RISE
 from . import text as fonttext
 
 _SHIFT = {"normal": 0.0, "sub": SUB_DROP, "sup": -SUP_RISE}
+# characters XML 1.0 does not allow (a caption or molfile title may carry them): dropped
+_NOT_XML = dict.fromkeys([c for c in range(32) if c not in (9, 10, 13)] + [0xFFFE, 0xFFFF])
+
+
+def xml_text(text: str) -> str:
+    return "".join(ch for ch in text.translate(_NOT_XML) if not 0xD800 <= ord(ch) <= 0xDFFF)
 
 
 def to_svg(figure, debug: bool = False) -> str:
     w, h = figure.width, figure.height
     dwg = svgwrite.Drawing(size=(f"{w:.2f}pt", f"{h:.2f}pt"), viewBox=f"0 0 {w:.2f} {h:.2f}", debug=debug)
     dwg.attribs["role"] = "img"
-    dwg.set_desc(title=figure.title, desc=figure.description)  # the first children, read by screen readers
+    dwg.set_desc(
+        title=xml_text(figure.title), desc=xml_text(figure.description)
+    )  # the first children, read by screen readers
     dwg.add(dwg.rect(insert=(0, 0), size=(f"{w:.2f}", f"{h:.2f}"), fill="white"))
     lines = dwg.g(stroke="black", stroke_linecap="round", fill="none")
     for s in figure.strokes:
@@ -39,8 +47,8 @@ def to_svg(figure, debug: bool = False) -> str:
     dwg.add(heads)
     for t in figure.texts:
         group = dwg.g(fill="black", class_=t.role)
-        group.attribs["aria-label"] = t.plain
-        group.set_desc(title=t.plain)
+        group.attribs["aria-label"] = xml_text(t.plain)
+        group.set_desc(title=xml_text(t.plain))
         x = t.x
         for run in t.runs:
             size = t.size * (SUB_SCALE if run.kind != "normal" else 1)
