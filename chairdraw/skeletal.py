@@ -216,12 +216,13 @@ def _atom_runs(
     """Runs of a heteroatom's label with its H count, and the span of the element symbol."""
     symbol = atom.GetSymbol()
     h = atom.GetTotalNumHs() if hydrogens else 0
-    hydrogens = [TextRun("H", NORMAL)] + ([TextRun(str(h), SUB)] if h > 1 else []) if h else []
-    if h_first and hydrogens:
-        runs = hydrogens + [TextRun(symbol, NORMAL)]
+    h_runs = [TextRun("H", NORMAL)] + ([TextRun(str(h), SUB)] if h > 1 else []) if h else []
+    runs: list[TextRun]
+    if h_first and h_runs:
+        runs = h_runs + [TextRun(symbol, NORMAL)]
         start = 1 + (len(str(h)) if h > 1 else 0)
     else:
-        runs = [TextRun(symbol, NORMAL)] + hydrogens
+        runs = [TextRun(symbol, NORMAL)] + h_runs
         start = 0
     charge = atom.GetFormalCharge()
     if charge:
