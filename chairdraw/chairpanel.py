@@ -85,17 +85,20 @@ class Panel:
         self.polygons += other.polygons
 
 
-def needed_scale(analysis: Analysis, chairs: list[tuple[RingResult, Chair]], style: Style) -> float:
+def needed_scale(
+    analysis: Analysis, chairs: list[tuple[RingResult, Chair]], style: Style, made: dict | None = None
+) -> float:
     """One scale for all ``chairs`` (ring result, chair) of a figure: the smallest of
     CHAIR_SCALES at which nothing in any of them touches; where there is none, the one with the
-    fewest clashes (the smaller on a tie). ``style.chair_scale``, when set, wins."""
+    fewest clashes (the smaller on a tie). ``style.chair_scale``, when set, wins. Panels made on
+    the way are kept in ``made`` (see ``chair_panel``)."""
     if style.chair_scale:
         return style.chair_scale
     best = (math.inf, CHAIR_SCALES[0])
     for scale in CHAIR_SCALES:
         count = 0
         for ring, chair in chairs:
-            panel = _chair_at(analysis, ring, chair, style, scale)[0]
+            panel = chair_panel(analysis, ring, chair, style, scale, made)[0]
             count += len(clashes(panel.strokes, panel.texts))
         if count == 0:
             return scale
@@ -104,13 +107,24 @@ def needed_scale(analysis: Analysis, chairs: list[tuple[RingResult, Chair]], sty
 
 
 def chair_panel(
-    analysis: Analysis, ring: RingResult, chair: Chair, style: Style, scale: float | None = None
+    analysis: Analysis,
+    ring: RingResult,
+    chair: Chair,
+    style: Style,
+    scale: float | None = None,
+    made: dict | None = None,
 ) -> tuple[Panel, Point]:
     """One chair with its substituents, and the centre of its ring (both in points, y down), at
-    ``scale`` times the style's bond length (by default the scale ``needed_scale`` finds)."""
+    ``scale`` times the style's bond length (by default the scale ``needed_scale`` finds). With
+    ``made`` (a dict that lives as long as one figure is being built), a panel is made once."""
     if scale is None:
-        scale = needed_scale(analysis, [(ring, chair)], style)
-    return _chair_at(analysis, ring, chair, style, scale)
+        scale = needed_scale(analysis, [(ring, chair)], style, made)
+    if made is None:
+        return _chair_at(analysis, ring, chair, style, scale)
+    key = (id(ring), id(chair), scale)
+    if key not in made:
+        made[key] = _chair_at(analysis, ring, chair, style, scale)
+    return made[key]
 
 
 def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, scale: float) -> tuple[Panel, Point]:

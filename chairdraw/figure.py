@@ -107,6 +107,7 @@ def ring_row(
     chairs: str = "both",
     heading: str | None = None,
     scale: float | None = None,
+    made: dict | None = None,
 ) -> Panel:
     """One row: the chairs asked for (``shown_chairs``), with arrows, the energy difference,
     captions, and a note where a caveat can change the answer; all chairs at ``scale``."""
@@ -118,7 +119,7 @@ def ring_row(
     x = 0.0
     built = []
     for n, i in enumerate(shown):
-        panel, centre = chair_panel(analysis, ring, ring.chairs[i], style, scale)
+        panel, centre = chair_panel(analysis, ring, ring.chairs[i], style, scale, made)
         bx0, _, bx1, _ = panel.box()
         panel = panel.moved(x - bx0, -centre[1])
         built.append((i, panel, x, x + bx1 - bx0))
@@ -229,10 +230,13 @@ def draw_analysis(
     whole = Panel()
     y = 0.0
     # one size for every chair of the figure: the smallest at which none of them has a clash
-    scale = needed_scale(analysis, [(r, r.chairs[i]) for r in results for i in shown_chairs(r, chairs)], style)
+    made: dict = {}  # panels made while choosing the scale, reused for the rows
+    scale = needed_scale(analysis, [(r, r.chairs[i]) for r in results for i in shown_chairs(r, chairs)], style, made)
     distinct = list(dict.fromkeys(r.atoms for r in analysis.rings))  # configurations share a ring
     for r in results:
-        row = ring_row(analysis, r, style, chairs, row_heading(r, distinct.index(r.atoms) + 1, len(results)), scale)
+        row = ring_row(
+            analysis, r, style, chairs, row_heading(r, distinct.index(r.atoms) + 1, len(results)), scale, made
+        )
         x0, y0, _, y1 = row.box()
         whole.add(row.moved(-x0, y - y0))
         y += y1 - y0 + style.row_spacing
