@@ -14,7 +14,7 @@ from dataclasses import dataclass, field
 from rdkit import Chem
 
 from .errors import FigureError
-from .labels import NORMAL, SUP, can_parse
+from .labels import DRAWN_AS, NORMAL, SUP, can_parse
 from .layout import (
     Point,
     Polygon,
@@ -268,7 +268,7 @@ def _bond_with_label(
     length is left out (implicit, as chemists often leave it); a group is drawn anyway, at the
     length where the fewest things touch."""
     reverse = direction[0] < -0.25 and not formula  # a molecular formula reads one way only
-    runs, span = label_runs(label, reverse)
+    runs, span = label_runs(DRAWN_AS.get(label, label), reverse)
     if formula and direction[0] < -0.25:
         span = (sum(len(r.text) for r in runs) - 1, sum(len(r.text) for r in runs))  # ends at the bond
     if start_box is not None:

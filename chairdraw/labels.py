@@ -17,6 +17,8 @@ from lark import Lark, Token, Transformer, UnexpectedInput, UnexpectedToken
 from .errors import LabelError
 
 NORMAL, SUB, SUP = "normal", "sub", "sup"
+# report labels that a structure drawing writes with the usual abbreviation (common practice)
+DRAWN_AS = {"COMe": "Ac", "cHex": "Cy", "SiMe3": "TMS", "COPh": "Bz", "CH2Ph": "Bn"}
 _SHOWN = {"#": "\u2261", "-": "\u2212"}  # triple bond, minus sign: what a printed label shows
 
 

@@ -675,3 +675,17 @@ def test_large_geminal_groups_with_the_same_formula_are_still_flagged():
     # different class values: the pair is not two equal groups
     ring = only_ring("C" * 20 + "C1(C(C)" + "C" * 18 + ")CCCCC1")
     assert any("not additive" in w for w in ring.warnings)
+
+
+def test_cis_2_methyl_5_tert_butyl_1_3_dioxane_puts_tbu_axial():
+    """The classic 1,3-dioxane case (Eliel and co-workers; values from memory, see avalues.txt):
+    an axial 5-group has ring-O lone pairs, not H atoms, syn to it, so 5-tBu costs only about
+    1.4 kcal/mol and the 2-Me (3.98) stays equatorial, putting tBu axial in the cis isomer."""
+    result = chairdraw.analyze("C[C@H]1OC[C@@H](C(C)(C)C)CO1")
+    ring = result.rings[0]
+    faces = {p.label: p.face for p in ring.chairs[0].positions if p.label in ("Me", "tBu")}
+    assert faces["Me"] == faces["tBu"]  # cis
+    favoured = {p.label: p.orientation for p in ring.favored.positions if p.label in ("Me", "tBu")}
+    assert favoured == {"Me": "equatorial", "tBu": "axial"}
+    assert 2.0 < ring.delta_g_kcal_mol < 3.2  # 3.98 - 1.4 = 2.6
+    assert any("from memory" in w and "tBu" in w for w in ring.warnings)
