@@ -34,7 +34,7 @@ from .render.style import Style
 from .results import Analysis, Chair, RingResult
 from .skeletal import MAX_ATOMS as MAX_SKELETAL_ATOMS
 from .skeletal import draw_groups, group_atoms
-from .substituents import substituent_groups
+from .substituents import condensed_label, fragments, substituent_groups
 
 DOUBLE_SPACING = 0.18  # of the bond length, between the lines of a double bond (common practice)
 # chairs are drawn larger, in these steps, until no label touches a bond or another label
@@ -175,11 +175,15 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
         panel.atoms[(p.ring_atom, p.atom)] = (at[k][0] + direction[0] * length, at[k][1] + direction[1] * length)
         if not _shown(p.label, ring.atoms[k] in hetero_atoms, p.ring_atom in stereo_atoms, style):
             continue
-        if p.atom is not None and _skeletal(p, mol):
-            skeletal.append((p.ring_atom, p.atom, panel.atoms[(p.ring_atom, p.atom)]))
-            continue
         eq_depth = depth[k] + (0.5 if not axial else 0)
-        labelled.append((at[k], direction, length, p.label, ring_boxes.get(k), eq_depth, False, p.estimated))
+        label, formula = p.label, p.estimated
+        if p.atom is not None and _skeletal(p, mol):
+            condensed = _condensed(mol, p.ring_atom, p.atom)
+            if condensed is None:
+                skeletal.append((p.ring_atom, p.atom, panel.atoms[(p.ring_atom, p.atom)]))
+                continue
+            label, formula = condensed, False
+        labelled.append((at[k], direction, length, label, ring_boxes.get(k), eq_depth, False, formula))
     drawn = {(p.ring_atom, p.atom) for p in chair.positions}
     for atom_idx in ring.trigonal_atoms:
         # a C=O, C=CH2 or the group on a planar N: in the ring's plane, along the outer bisector
@@ -244,6 +248,16 @@ def _number(panel: Panel, ring: RingResult, at: list[Point], unit: float, style:
             else:
                 continue
             break
+
+
+def _condensed(mol: Chem.Mol, ring_atom: int, atom: int) -> str | None:
+    """A condensed label (CH2OTBS, CH2OAc) for a group with no table label, unless the group has
+    stereocentres of its own (a label cannot show them: it is then drawn skeletal, wedged)."""
+    atoms = group_atoms(mol, ring_atom, atom)
+    if any(mol.GetAtomWithIdx(a).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for a in atoms):
+        return None
+    label = condensed_label(fragments(mol, [(ring_atom, atom)])[(ring_atom, atom)])
+    return label if label is not None and can_parse(label) else None
 
 
 def _skeletal(position, mol: Chem.Mol) -> bool:

@@ -333,3 +333,40 @@ def _canonical_piece(smiles: str) -> str | None:
         return canonical_fragment(smiles)  # also drops hydrogens drawn as atoms (molfiles, AddHs)
     except ValueError:
         return None
+
+
+@cache
+def condensed_label(fragment: str, links: int = 2) -> str | None:
+    """A condensed label for a group the table has no row for, where it is a table group behind
+    one or two CH2 links: CH2OTBS, CH2OAc, CH2CH2OH. None when it is not."""
+    mol = Chem.MolFromSmiles(fragment)
+    if mol is None:
+        return None
+    prefix = ""
+    for _ in range(links):
+        dummy = next((a for a in mol.GetAtoms() if a.GetAtomicNum() == 0), None)
+        if dummy is None or dummy.GetDegree() != 1:
+            return None
+        link = dummy.GetNeighbors()[0]
+        if not (
+            link.GetSymbol() == "C"
+            and link.GetDegree() == 2
+            and link.GetTotalNumHs() == 2
+            and not link.GetFormalCharge()
+        ):
+            return None
+        rest = Chem.RWMol(mol)
+        rest.GetAtomWithIdx(link.GetIdx()).SetAtomicNum(0)  # the CH2 becomes the new attachment point
+        rest.GetAtomWithIdx(link.GetIdx()).SetNoImplicit(True)
+        rest.RemoveAtom(dummy.GetIdx())
+        try:
+            Chem.SanitizeMol(rest)
+        except (ValueError, RuntimeError):
+            return None
+        mol = rest.GetMol()
+        prefix += "CH2"
+        group = recognise(Chem.MolToSmiles(mol))
+        # an alkyl behind CH2 (CH2Et) reads worse than the skeletal chain: not offered
+        if group.estimated_as is None and group.label not in ("?", "H", "D", "T", "Me", "Et", "iPr", "tBu"):
+            return prefix + group.label
+    return None

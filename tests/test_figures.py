@@ -521,3 +521,15 @@ def test_overlaps_are_rare_on_rdkit_sample_molecules():
                 break
     assert drawn == 60
     assert touching <= 6, touching
+
+
+def test_groups_behind_ch2_get_condensed_labels():
+    from chairdraw.substituents import condensed_label
+
+    assert condensed_label("*CO[Si](C)(C)C(C)(C)C") == "CH2OTBS"
+    assert condensed_label("*COC(C)=O") == "CH2OAc"
+    assert condensed_label("*CCO") == "CH2CH2OH"
+    assert condensed_label("*CCC") is None  # an alkyl chain is drawn, not written CH2Et
+    assert condensed_label("*C(C)OC(C)=O") is None  # not a CH2 link
+    figure = chairdraw.draw("CC(=O)OC[C@H]1O[C@@H](OC(C)=O)[C@H](OC(C)=O)[C@@H](OC(C)=O)[C@@H]1OC(C)=O")
+    assert {"CH2OAc", "AcOH2C"} & {t.plain for t in figure.texts}
