@@ -219,35 +219,37 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
     ):
         _bond_with_label(panel, start, direction, length, label, box, bond_depth, style, double, formula)
     if style.numbering:
-        _number(panel, ring, at, s, style)
+        _number(panel, ring, at, style.bond_length * scale, style)
     for k, atom_idx in enumerate(ring.atoms):
         panel.atoms[(atom_idx, atom_idx)] = at[k]
     centre = (sum(x for x, _ in at) / 6, sum(y for _, y in at) / 6)
     return panel, centre
 
 
-def _number(panel: Panel, ring: RingResult, at: list[Point], unit: float, style: Style) -> None:
-    """Ring locants beside their atoms, in the first free spot around each (a sugar's ring O,
-    written as O already, gets none)."""
+def _number(panel: Panel, ring: RingResult, at: list[Point], bond: float, style: Style) -> None:
+    """Ring locants inside the V of their atoms (between its two ring bonds), or the nearest free
+    spot around it; a sugar's ring O, written as O already, gets none."""
     size = style.caption_size * 0.75
     for k, locant in enumerate(ring.locants):
         if not locant[0].isdigit() and not locant.startswith("C"):
             continue
         number = locant.lstrip("C")
         runs = (TextRun(number, NORMAL),)
-        for angle in (-90, -45, -135, 0, 180, 45, 135, 90, -60, -120, 60, 120):
-            for reach in (0.32, 0.45):
-                c = (
-                    at[k][0] + math.cos(math.radians(angle)) * reach * unit,
-                    at[k][1] + math.sin(math.radians(angle)) * reach * unit,
-                )
+        u1 = _unit((at[k - 1][0] - at[k][0], at[k - 1][1] - at[k][1]))
+        u2 = _unit((at[(k + 1) % 6][0] - at[k][0], at[(k + 1) % 6][1] - at[k][1]))
+        inside = math.degrees(math.atan2(u1[1] + u2[1], u1[0] + u2[0]))
+        placed = False
+        for turn in (0, 25, -25, 50, -50, 80, -80, 180):
+            for reach in (0.3, 0.42):
+                angle = math.radians(inside + turn)
+                c = (at[k][0] + math.cos(angle) * reach * bond, at[k][1] + math.sin(angle) * reach * bond)
                 text = anchored_label(runs, (0, len(number)), c, size, "locant")
                 if not clashes(panel.strokes, [text], tolerance=-0.5, others=panel.texts):
                     panel.texts.append(text)
+                    placed = True
                     break
-            else:
-                continue
-            break
+            if placed:
+                break
 
 
 def _condensed(mol: Chem.Mol, ring_atom: int, atom: int) -> str | None:

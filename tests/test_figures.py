@@ -533,3 +533,21 @@ def test_groups_behind_ch2_get_condensed_labels():
     assert condensed_label("*C(C)OC(C)=O") is None  # not a CH2 link
     figure = chairdraw.draw("CC(=O)OC[C@H]1O[C@@H](OC(C)=O)[C@H](OC(C)=O)[C@@H](OC(C)=O)[C@@H]1OC(C)=O")
     assert {"CH2OAc", "AcOH2C"} & {t.plain for t in figure.texts}
+
+
+@pytest.mark.parametrize(
+    "smiles", ["OC[C@H]1O[C@@H](O)[C@H](O)[C@@H](O)[C@@H]1O", "CC(C)[C@@H]1CC[C@@H](C)C[C@H]1O", "C[C@@H]1CCCCN1"]
+)
+def test_each_locant_sits_nearest_its_own_ring_atom(smiles):
+    analysis = chairdraw.analyze(smiles)
+    ring = analysis.rings[0]
+    for chair in ring.chairs:
+        panel, _ = chair_panel(analysis, ring, chair, Style(numbering=True))
+        at = {loc.lstrip("C"): panel.atoms[(a, a)] for a, loc in zip(ring.atoms, ring.locants)}
+        numbers = [t for t in panel.texts if t.role == "locant"]
+        assert len(numbers) >= 5  # the ring O of a sugar gets none; every carbon one
+        for t in numbers:
+            x0, y0, x1, y1 = t.extent()
+            centre = ((x0 + x1) / 2, (y0 + y1) / 2)
+            nearest = min(at, key=lambda n: math.dist(at[n], centre))
+            assert nearest == t.plain, (smiles, chair.name, t.plain, nearest)
