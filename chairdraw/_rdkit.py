@@ -101,3 +101,15 @@ def atomic_numbers(mol: Chem.Mol) -> list[int]:
     """Atomic number of every atom, by index (twice as fast as walking ``mol.GetAtoms()``)."""
     atom = mol.GetAtomWithIdx
     return [atom(i).GetAtomicNum() for i in range(mol.GetNumAtoms())]
+
+
+def without_hs(mol: Chem.Mol) -> tuple[Chem.Mol, dict[int, int]]:
+    """The molecule without its explicit H atoms, and where each kept atom went: RemoveHs
+    renumbers the atoms after a removed H, and callers hold the input's numbers."""
+    if not any(a.GetAtomicNum() == 1 for a in mol.GetAtoms()):
+        return Chem.Mol(mol), {i: i for i in range(mol.GetNumAtoms())}
+    tagged = Chem.Mol(mol)
+    for atom in tagged.GetAtoms():
+        atom.SetIntProp("_chairdraw_index", atom.GetIdx())
+    heavy = Chem.RemoveHs(tagged, sanitize=False)
+    return heavy, {a.GetIntProp("_chairdraw_index"): a.GetIdx() for a in heavy.GetAtoms()}

@@ -3,9 +3,10 @@
 The favoured chair (or the one asked for) is written with the coordinates of the figure: y up,
 axial bonds along y, equatorial bonds parallel to the ring bonds one step away, every atom present
 (labels expanded back to their atoms, laid out by RDKit around the pinned chair) and an explicit
-H on each ring stereocentre. Bonds are plain: the stereo is in the chair's geometry, as in the
-drawing, so any program that reads chair drawings from coordinates gets it back (RDKit does not:
-a flat drawing without wedges reads as unspecified stereo).
+H on each ring stereocentre. The chair's bonds are plain: the stereo of its ring is in its
+geometry, as in the drawing, so a program that reads chair drawings from coordinates gets it back
+(RDKit does not: a flat drawing without wedges reads as unspecified stereo). Stereocentres
+elsewhere (side chains, other rings) carry wedges, as in any flat drawing.
 """
 
 from __future__ import annotations
@@ -14,6 +15,7 @@ from rdkit import Chem
 from rdkit.Chem import rdDepictor
 from rdkit.Geometry import Point2D
 
+from ._rdkit import without_hs
 from .errors import FigureError
 from .figure import chair_panel
 from .render.style import CHAIRS, Style
@@ -37,8 +39,9 @@ def chair_molblock(analysis: Analysis, ring: int = 0, chair: str = "favored", st
     style = (style or Style()).replace(hydrogens="stereo")
     panel, _ = chair_panel(analysis, result, shown, style)
     source = result.configuration.molecule if result.configuration is not None else analysis.mol
-    mol = Chem.RWMol(Chem.RemoveHs(source, sanitize=False) if _has_h(source) else source)
-    stereo = {c.atom for c in result.stereo}
+    heavy, new = without_hs(source)  # panel.atoms holds the input's atom numbers: translated
+    mol = Chem.RWMol(heavy)
+    stereo = {new[c.atom] for c in result.stereo}
     ring_xy = [panel.atoms[(a, a)] for a in result.atoms]
     mean = (
         sum(
@@ -50,6 +53,8 @@ def chair_molblock(analysis: Analysis, ring: int = 0, chair: str = "favored", st
     scale = MOLFILE_BOND / mean  # the drawn ring bonds average one molfile bond
     pinned: dict[int, Point2D] = {}
     for (ring_atom, atom), (x, y) in panel.atoms.items():
+        ring_atom = new[ring_atom]
+        atom = new.get(atom) if atom is not None else None  # an explicit H atom: gone, like an implicit one
         if atom is None:
             if ring_atom not in stereo or mol.GetAtomWithIdx(ring_atom).GetTotalNumHs() != 1:
                 continue
@@ -63,11 +68,10 @@ def chair_molblock(analysis: Analysis, ring: int = 0, chair: str = "favored", st
     out = mol.GetMol()
     Chem.SanitizeMol(out)
     rdDepictor.Compute2DCoords(out, coordMap=pinned)
-    for atom in out.GetAtoms():  # plain bonds: the chair's geometry carries the stereo
-        atom.SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+    # the chair's own centres: plain bonds, its geometry carries their stereo; every other
+    # stereocentre (side chains, other rings) keeps a wedge, as in any flat drawing
+    for a in result.atoms:
+        out.GetAtomWithIdx(new[a]).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+    Chem.WedgeMolBonds(out, out.GetConformer())
     out.SetProp("_Name", analysis.record or "chair")
-    return Chem.MolToMolBlock(out, includeStereo=False, kekulize=True)
-
-
-def _has_h(mol: Chem.Mol) -> bool:
-    return any(a.GetAtomicNum() == 1 for a in mol.GetAtoms())
+    return Chem.MolToMolBlock(out, includeStereo=True, kekulize=True)

@@ -33,7 +33,7 @@ from .molgraph import MolGraph
 from .render.style import Style
 from .results import Analysis, Chair, RingResult
 from .skeletal import MAX_ATOMS as MAX_SKELETAL_ATOMS
-from .skeletal import draw_groups, group_atoms
+from .skeletal import draw_groups, group_atoms, hidden_by_a_label
 from .substituents import condensed_label, fragments, substituent_groups
 
 DOUBLE_SPACING = 0.18  # of the bond length, between the lines of a double bond (common practice)
@@ -195,7 +195,7 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
             reach = style.bond_length * scale
             end = (at[k][0] + out[0] * reach, at[k][1] + out[1] * reach)
             panel.atoms[(atom_idx, other)] = end
-            if not double and (estimated or not can_parse(label) or len(label) > MAX_LABEL):
+            if estimated or not can_parse(label) or len(label) > MAX_LABEL:
                 if len(group_atoms(mol, atom_idx, other)) <= MAX_SKELETAL_ATOMS:
                     skeletal.append((atom_idx, other, end))
                     continue
@@ -264,10 +264,13 @@ def _condensed(mol: Chem.Mol, ring_atom: int, atom: int) -> str | None:
 
 def _skeletal(position, mol: Chem.Mol) -> bool:
     """Whether a group is drawn as a skeletal fragment: it has no condensed label of its own (it
-    was estimated by class, and is named by its formula) and is not too large to draw."""
-    if not position.estimated and can_parse(position.label) and len(position.label) <= MAX_LABEL:
+    was estimated by class, and is named by its formula), or it carries stereo or isotopes that
+    a label would hide; and it is not too large to draw."""
+    if len(group_atoms(mol, position.ring_atom, position.atom)) > MAX_SKELETAL_ATOMS:
         return False
-    return len(group_atoms(mol, position.ring_atom, position.atom)) <= MAX_SKELETAL_ATOMS
+    if hidden_by_a_label(mol, position.ring_atom, position.atom):
+        return True
+    return position.estimated or not can_parse(position.label) or len(position.label) > MAX_LABEL
 
 
 def _shown(label: str, hetero: bool, stereocentre: bool, style: Style) -> bool:
@@ -352,9 +355,10 @@ def _flat_groups(mol: Chem.Mol, atom_idx: int, ring_atoms: set[int], drawn: set)
             continue
         if bond.GetBondType() == Chem.BondType.DOUBLE:
             h = other.GetTotalNumHs()
-            out.append(
-                (other.GetSymbol() + ("H" if h else "") + (str(h) if h > 1 else ""), True, other.GetIdx(), False)
-            )
+            label = other.GetSymbol() + ("H" if h else "") + (str(h) if h > 1 else "")
+            # =O, =CH2, =NH: a label; =NOH, =CHCO2Et (and E/Z): drawn, as "estimated" groups are
+            more = any(n.GetIdx() != atom_idx and n.GetAtomicNum() > 1 for n in other.GetNeighbors())
+            out.append((label, True, other.GetIdx(), more or hidden_by_a_label(mol, atom_idx, other.GetIdx())))
         else:
             graph = MolGraph(mol)
             group = substituent_groups(mol, graph, [(atom_idx, other.GetIdx())])[(atom_idx, other.GetIdx())]

@@ -40,7 +40,7 @@ def _parser() -> argparse.ArgumentParser:
     def energy_options(q: argparse.ArgumentParser) -> None:
         q.add_argument("--temperature", type=float, default=298.15, metavar="K", help="temperature in K (298.15)")
         q.add_argument("--solvent", choices=SOLVENTS, default="aprotic", help="solvent class for A-values")
-        q.add_argument("--units", choices=("kcal", "kJ"), default="kcal", help="energy units of the text report")
+        q.add_argument("--units", choices=("kcal", "kJ"), default=None, help="energy units (kcal)")
         q.add_argument("--json", action="store_true", help="print one JSON object per structure")
         q.add_argument(
             "--forcefield",
@@ -62,7 +62,7 @@ def _parser() -> argparse.ArgumentParser:
         q.add_argument(
             "--hydrogens", choices=HYDROGENS, default=None, help="H atoms drawn: none, on stereocentres, all"
         )
-        q.add_argument("--numbering", action="store_true", help="ring locants inside the ring")
+        q.add_argument("--numbering", action="store_true", help="ring locants beside their atoms")
         q.add_argument("--show-flat", action="store_true", help="the flat input (wedges, hashes) beside the chairs")
         q.add_argument("--style", metavar="FILE.toml", help="style settings (sizes in pt) from a TOML file")
         q.add_argument("--bond-length", type=float, metavar="PT", help="bond length in pt (14.4)")
@@ -173,7 +173,7 @@ def _analyze(args, analyzer: Analyzer) -> int:
     if args.json:
         print(json.dumps(result.to_dict(), indent=2, ensure_ascii=False))
     else:
-        print(format_analysis(result, args.units))
+        print(format_analysis(result, args.units or "kcal"))
         print()
         print(DISCLAIMER)
     return OK
@@ -198,10 +198,10 @@ def _demo(args, analyzer: Analyzer) -> int:
         if args.json:
             rows.append(result.to_dict())
         elif args.full:
-            print(format_analysis(result, args.units))
+            print(format_analysis(result, args.units or "kcal"))
             print()
         else:
-            print(summary_line(result, args.units))
+            print(summary_line(result, args.units or "kcal"))
     if args.json:
         print(json.dumps(rows, indent=2, ensure_ascii=False))
     else:

@@ -187,6 +187,13 @@ def row_heading(ring: RingResult, number: int, rows: int) -> str | None:
 
 
 FLAT_GAP = 24.0  # pt between the flat input and the chairs
+# what the input's stereo means, where it is not simply absolute (read from the enhanced-stereo
+# groups or a molfile's chiral flag): the chairs show one of the stereoisomers it stands for
+STEREO_NOTES = {
+    "racemic": "Stereo read as racemic (AND groups): one enantiomer is drawn.",
+    "relative": "Stereo read as relative (OR groups or chiral flag 0): one of the enantiomers is drawn.",
+    "mixed": "Stereo groups of several kinds: the drawn configuration holds within each group only.",
+}
 
 
 def flat_panel(analysis: Analysis, style: Style) -> Panel:
@@ -196,7 +203,7 @@ def flat_panel(analysis: Analysis, style: Style) -> Panel:
     x0, _, x1, y1 = panel.box()
     panel.texts.append(
         centred_text(
-            (TextRun("as drawn", NORMAL),),
+            (TextRun("as drawn" if _drawn_input(analysis) else "flat structure", NORMAL),),
             (x0 + x1) / 2,
             y1 + 1.6 * style.caption_size,
             style.caption_size,
@@ -205,6 +212,12 @@ def flat_panel(analysis: Analysis, style: Style) -> Panel:
         )
     )
     return panel
+
+
+def _drawn_input(analysis: Analysis) -> bool:
+    """Whether the input was a drawing (a molfile with 2D coordinates), not text laid out here."""
+    mol = analysis.mol
+    return bool(mol.GetNumConformers()) and not mol.GetConformer().Is3D() and analysis.format.startswith("mol")
 
 
 def draw_analysis(
@@ -246,6 +259,20 @@ def draw_analysis(
         wx0, wy0, _, wy1 = whole.box()
         whole = whole.moved(fx1 - fx0 + FLAT_GAP - wx0, 0.0)
         whole.add(flat.moved(-fx0, (wy0 + wy1) / 2 - (fy0 + fy1) / 2))
+    meaning = STEREO_NOTES.get(analysis.stereo_meaning)
+    if meaning:
+        _, _, _, y1 = whole.box()
+        whole.texts.append(
+            Text(
+                (TextRun(meaning, NORMAL),),
+                0.0,
+                y1 + 1.6 * style.caption_size,
+                style.caption_size,
+                "regular",
+                "note",
+                meaning,
+            )
+        )
     if caption:
         _, _, _, y1 = whole.box()
         whole.texts.append(

@@ -15,6 +15,7 @@ from rdkit import Chem
 from rdkit.Chem import rdDepictor
 from rdkit.Geometry import Point2D
 
+from ._rdkit import without_hs
 from .labels import NORMAL, SUB, SUP
 from .layout import Point, Polygon, Stroke, Text, TextRun, anchored_label, clip_to_box, symbol_box
 from .render import text as fonttext
@@ -26,16 +27,34 @@ _SPACING = 0.18  # of the bond length, between the lines of a multiple bond (com
 
 
 def group_atoms(mol: Chem.Mol, ring_atom: int, first: int) -> list[int]:
-    """Heavy atoms reached from ``first`` without passing through ``ring_atom``."""
+    """Atoms reached from ``first`` without passing through ``ring_atom``: heavy atoms and
+    isotopic hydrogens (D, T are drawn; plain H atoms are not)."""
     seen = {ring_atom, first}
     out = [first]
     for idx in out:
         for nbr in mol.GetAtomWithIdx(idx).GetNeighbors():
             j = nbr.GetIdx()
-            if j not in seen and nbr.GetAtomicNum() > 1:
+            if j not in seen and (nbr.GetAtomicNum() > 1 or nbr.GetIsotope()):
                 seen.add(j)
                 out.append(j)
     return out
+
+
+def hidden_by_a_label(mol: Chem.Mol, ring_atom: int, first: int) -> bool:
+    """Whether a group carries something a condensed label cannot show: a stereocentre, a
+    stereo double bond, an isotope or an unpaired electron (it is then drawn, not written)."""
+    atoms = set(group_atoms(mol, ring_atom, first))
+    for i in atoms:
+        atom = mol.GetAtomWithIdx(i)
+        if atom.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED or atom.GetIsotope() or atom.GetNumRadicalElectrons():
+            return True
+        if any(n.GetAtomicNum() == 1 and n.GetIsotope() for n in atom.GetNeighbors()):
+            return True
+    return any(
+        b.GetStereo() != Chem.BondStereo.STEREONONE
+        for b in mol.GetBonds()
+        if b.GetBeginAtomIdx() in atoms | {ring_atom} and b.GetEndAtomIdx() in atoms | {ring_atom}
+    )
 
 
 def draw_groups(
@@ -49,10 +68,13 @@ def draw_groups(
     """Strokes, texts and wedges of each group (ring atom, first atom, where the first atom
     goes), laid out around the pinned chair; ``bond_pt`` is the drawn length of a bond in points."""
     k = RDKIT_BOND / bond_pt
+    heavy, new = without_hs(mol)  # the caller's atom numbers are the input's: translated here
+    ring_points = {new[a]: p for a, p in ring_points.items()}
+    groups = [(new[r], new[f], p) for r, f, p in groups]
+    ring_boxes = {new[a]: b for a, b in ring_boxes.items()}
     pinned = {a: Point2D(x * k, -y * k) for a, (x, y) in ring_points.items()}
     for _, first, (x, y) in groups:
         pinned[first] = Point2D(x * k, -y * k)
-    heavy = Chem.RemoveHs(mol, sanitize=False) if any(a.GetAtomicNum() == 1 for a in mol.GetAtoms()) else Chem.Mol(mol)
     try:
         Chem.Kekulize(heavy, clearAromaticFlags=True)
     except Chem.KekulizeException:
@@ -86,15 +108,14 @@ def draw_groups(
 def draw_flat(mol: Chem.Mol, bond_pt: float, style: Style) -> tuple[list[Stroke], list[Text], list[Polygon]]:
     """The flat input as chemists draw it: rings as regular polygons, wedges and hashes. A molfile's
     own coordinates and wedges are kept; otherwise RDKit lays it out and picks the wedges."""
-    heavy = Chem.RemoveHs(mol, sanitize=False) if any(a.GetAtomicNum() == 1 for a in mol.GetAtoms()) else Chem.Mol(mol)
-    flat = heavy.GetNumConformers() and not heavy.GetConformer().Is3D()
-    if (
-        flat
-        and heavy.GetNumBonds()
-        and any(b.HasProp("_MolFileBondStereo") or b.HasProp("_MolFileBondCfg") for b in heavy.GetBonds())
-    ):
+    flat = mol.GetNumConformers() and not mol.GetConformer().Is3D()
+    if flat and any(b.HasProp("_MolFileBondStereo") or b.HasProp("_MolFileBondCfg") for b in mol.GetBonds()):
+        # a drawing: its own coordinates and wedges, explicit H atoms included (they may carry
+        # the wedges), exactly as the author drew them
+        heavy = Chem.Mol(mol)
         Chem.ReapplyMolBlockWedging(heavy)
     else:
+        heavy = without_hs(mol)[0]
         if not flat:
             rdDepictor.Compute2DCoords(heavy)
         Chem.WedgeMolBonds(heavy, heavy.GetConformer())
@@ -128,7 +149,8 @@ def _draw(heavy: Chem.Mol, at, atoms: list[int], anchors: set[int], boxes: dict,
     inside = set(atoms)
     for i in atoms:
         atom = heavy.GetAtomWithIdx(i)
-        if atom.GetSymbol() == "C" and not atom.GetFormalCharge() and atom.GetDegree() > 0:
+        special = atom.GetFormalCharge() or atom.GetIsotope() or atom.GetNumRadicalElectrons()
+        if atom.GetSymbol() == "C" and not special and atom.GetDegree() > 0:
             continue
         here = at(i)
         # an atom's H goes on the side its bonds do not leave from (HN when the bonds go right)
@@ -213,8 +235,17 @@ def _hydrogens_off_axis(atom: Chem.Atom, here: Point, below: bool, style: Style)
 def _atom_runs(
     atom: Chem.Atom, h_first: bool = False, hydrogens: bool = True
 ) -> tuple[tuple[TextRun, ...], tuple[int, int]]:
-    """Runs of a heteroatom's label with its H count, and the span of the element symbol."""
+    """Runs of a heteroatom's label with its H count, and the span of the element symbol (an
+    isotope: D, T, or its mass number as a superscript, 13C)."""
     symbol = atom.GetSymbol()
+    if atom.GetAtomicNum() == 1 and atom.GetIsotope() in (2, 3):
+        symbol = "D" if atom.GetIsotope() == 2 else "T"
+    elif atom.GetIsotope():
+        mass = str(atom.GetIsotope())
+        runs0 = (TextRun(mass, SUP), TextRun(symbol, NORMAL))
+        h = atom.GetTotalNumHs() if hydrogens else 0
+        tail = ((TextRun("H", NORMAL),) + ((TextRun(str(h), SUB),) if h > 1 else ())) if h else ()
+        return runs0 + tail, (len(mass), len(mass) + len(symbol))
     h = atom.GetTotalNumHs() if hydrogens else 0
     h_runs = [TextRun("H", NORMAL)] + ([TextRun(str(h), SUB)] if h > 1 else []) if h else []
     runs: list[TextRun]
@@ -228,6 +259,8 @@ def _atom_runs(
     if charge:
         sign = "+" if charge > 0 else "\u2212"
         runs.append(TextRun((str(abs(charge)) if abs(charge) > 1 else "") + sign, SUP))
+    if atom.GetNumRadicalElectrons():
+        runs.append(TextRun("\u2022" * atom.GetNumRadicalElectrons(), SUP))  # a radical: the dot
     merged: list[TextRun] = []
     for r in runs:
         if merged and merged[-1].kind == r.kind:

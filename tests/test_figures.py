@@ -348,9 +348,19 @@ def test_demo_writes_the_gallery(tmp_path):
 
 
 def _lift_molfile(block: str, analysis, ring) -> Chem.Mol:
-    """3D from a chair molfile's 2D coordinates (same rules as _lift), stereo perceived by RDKit."""
+    """3D from a chair molfile's 2D coordinates (same rules as _lift), stereo perceived by RDKit.
+    The file numbers atoms as the input without its explicit H atoms (then the added H)."""
+    from types import SimpleNamespace
+
+    from chairdraw._rdkit import without_hs
+
+    new = without_hs(analysis.mol)[1]
+    ring = SimpleNamespace(atoms=tuple(new[a] for a in ring.atoms))
     mol = Chem.MolFromMolBlock(block, removeHs=False)
     assert mol is not None
+    # centres away from the chair are read from the file's wedges (as RDKit does), the chair's
+    # own from its geometry below
+    kept = {a.GetIdx(): a.GetChiralTag() for a in mol.GetAtoms() if a.GetIdx() not in ring.atoms}
     xy = mol.GetConformer()
     eps = math.radians(ELEVATION_DEG)
     pts = [(xy.GetAtomPosition(a).x, -xy.GetAtomPosition(a).y) for a in ring.atoms]  # page y down
@@ -388,7 +398,10 @@ def _lift_molfile(block: str, analysis, ring) -> Chem.Mol:
     mol.RemoveAllConformers()
     mol.AddConformer(conf, assignId=True)
     Chem.AssignStereochemistryFrom3D(mol, replaceExistingTags=True)
+    for i, tag in kept.items():
+        mol.GetAtomWithIdx(i).SetChiralTag(tag)
     mol.RemoveAllConformers()
+    Chem.AssignStereochemistry(mol, cleanIt=True, force=True)
     return Chem.RemoveHs(mol)
 
 
@@ -399,6 +412,9 @@ def _lift_molfile(block: str, analysis, ring) -> Chem.Mol:
         "CC(C)[C@@H]1CC[C@@H](C)C[C@H]1O",  # (-)-menthol
         "C[C@H]1CC[C@@H](O)CC1",
         "C[C@@H]1CCCCO1",
+        "C[C@H](O)[C@H]1CC[C@@H](C)CC1",  # a side-chain stereocentre: wedged in the file
+        "C[C@@H]1CC[C@H](CC1)[C@H]1CC[C@H](O)CC1",  # a second chair ring: its centres wedged
+        "[H][C@]1(CC[C@@H](C)CC1)O",  # an explicit H atom first
     ],
 )
 @pytest.mark.parametrize("which", ["favored", "flip"])
@@ -408,10 +424,16 @@ def test_chair_molfile_reads_back_as_the_input(smiles, which):
     analysis = chairdraw.analyze(smiles)
     block = chair_molblock(analysis, chair=which)
     plain = Chem.MolFromMolBlock(block)
-    assert not any(b.GetBondDir() != Chem.BondDir.NONE for b in plain.GetBonds())
-    assert "/t" not in Chem.MolToInchi(plain)  # plain bonds: RDKit alone reads no stereo from it
+    # read by RDKit alone (wedges only), the chair's own centres are open and the others set
+    ring = set(analysis.rings[0].atoms)
+    outside = [i for i, _ in Chem.FindMolChiralCenters(analysis.mol) if i not in ring]  # the input's numbering
+    read = Chem.FindMolChiralCenters(plain, includeUnassigned=True, useLegacyImplementation=False)
+    assert sum(1 for _, label in read if label != "?") == len(outside)
     mol = Chem.MolFromMolBlock(block, removeHs=False)
-    assert all(mol.GetAtomWithIdx(c.atom).GetDegree() == 4 for c in analysis.rings[0].stereo)  # H on centres
+    from chairdraw._rdkit import without_hs
+
+    new = without_hs(analysis.mol)[1]
+    assert all(mol.GetAtomWithIdx(new[c.atom]).GetDegree() == 4 for c in analysis.rings[0].stereo)  # H on centres
     got = Chem.MolToInchi(_lift_molfile(block, analysis, analysis.rings[0]))
     assert got == Chem.MolToInchi(Chem.MolFromSmiles(smiles))
 
@@ -551,3 +573,65 @@ def test_each_locant_sits_nearest_its_own_ring_atom(smiles):
             centre = ((x0 + x1) / 2, (y0 + y1) / 2)
             nearest = min(at, key=lambda n: math.dist(at[n], centre))
             assert nearest == t.plain, (smiles, chair.name, t.plain, nearest)
+
+
+def _molfile_with_h_in_the_middle() -> str:
+    from rdkit.Chem import AllChem
+
+    mol = Chem.AddHs(Chem.MolFromSmiles("O[C@H]1CC[C@@H](C)CC1"))  # H atoms numbered after the heavy atoms
+    order = [0, 1, 8, 2, 3, 4, 5, 6, 7] + list(range(9, mol.GetNumAtoms()))  # one H moved among them
+    mol = Chem.RenumberAtoms(mol, order)
+    AllChem.Compute2DCoords(mol)
+    Chem.WedgeMolBonds(mol, mol.GetConformer())
+    return Chem.MolToMolBlock(mol)
+
+
+def test_explicit_h_atoms_anywhere_in_a_molfile(tmp_path):
+    path = tmp_path / "h.mol"
+    path.write_text(_molfile_with_h_in_the_middle())
+    out, chair = tmp_path / "f.svg", tmp_path / "chair.mol"
+    assert (
+        main(["draw", str(path), "-o", str(out), "--molfile", str(chair), "--show-flat", "--forcefield", "never"]) == 0
+    )
+    analysis = chairdraw.analyze(str(path))
+    figure = draw_analysis(analysis, show_flat=True)
+    assert {"OH", "HO"} & {t.plain for t in figure.texts} and "as drawn" in {t.plain for t in figure.texts}
+    want = Chem.MolToInchi(Chem.MolFromSmiles("O[C@H]1CC[C@@H](C)CC1"))
+    assert Chem.MolToInchi(_lift_molfile(chair.read_text(), analysis, analysis.rings[0])) == want
+
+
+@pytest.mark.parametrize(
+    "smiles,hidden",
+    [
+        ("CC1CCC(=NO)CC1", None),  # an oxime: the whole =N-OH, not '=N'
+        ("CCOC(=O)/C=C1/CC[C@@H](C)[C@H](C)C1", None),  # an exocyclic alkylidene ester, with its E/Z
+        ("C[S@@](=O)[C@H]1CC[C@@H](C)CC1", "S(O)Me"),  # a stereogenic sulfoxide: not hidden in a label
+        ("O[C@@H]([2H])[C@H]1CC[C@@H](C)CC1", "CH2OH"),  # an isotope and a stereocentre: drawn
+        ("[13CH3][C@H]1CC[C@@H](C)CC1", None),
+    ],
+)
+def test_what_a_label_would_hide_is_drawn(smiles, hidden):
+    figure = chairdraw.draw(smiles)
+    texts = {t.plain for t in figure.texts}
+    if hidden:
+        assert hidden not in texts and DRAWN_REVERSED.get(hidden, hidden) not in texts
+    if "13C" in smiles:
+        assert "13CH3" in texts  # the isotope written with its mass number
+    heavy = Chem.MolFromSmiles(smiles).GetNumHeavyAtoms()
+    ring_kept = 6
+    drawn_bonds = [s for s in figure.strokes if s.role in ("bond", "double", "hash")]
+    assert drawn_bonds and len(drawn_bonds) + len(figure.polygons) >= heavy - ring_kept  # every group atom drawn
+
+
+DRAWN_REVERSED = {"S(O)Me": "Me(O)S", "CH2OH": "HOH2C", "Me": "Me"}
+
+
+def test_e_and_z_exocyclic_isomers_differ():
+    e = chairdraw.draw("CCOC(=O)/C=C1/CC[C@@H](C)[C@H](C)C1").svg()
+    z = chairdraw.draw("CCOC(=O)/C=C1\\CC[C@@H](C)[C@H](C)C1").svg()
+    assert e != z
+
+
+def test_racemic_input_says_so_in_the_figure():
+    figure = chairdraw.draw("C[C@H]1CC[C@@H](O)CC1 |&1:1,4|")
+    assert any(t.role == "note" and "racemic" in t.plain for t in figure.texts)
