@@ -186,8 +186,23 @@ def _draw(heavy: Chem.Mol, at, atoms: list[int], anchors: set[int], boxes: dict,
         elif direction == Chem.BondDir.UNKNOWN:
             strokes += _wavy(pa, pb, boxes.get(a), boxes.get(b), style)
         else:
-            strokes += _bond_lines(pa, pb, order, boxes.get(a), boxes.get(b), bond_pt, style)
+            centre = _ring_centre(heavy, bond, at) if order == 2 and bond.IsInRing() else None
+            strokes += _bond_lines(pa, pb, order, boxes.get(a), boxes.get(b), bond_pt, style, centre)
     return strokes, texts, wedges
+
+
+def _ring_centre(heavy: Chem.Mol, bond: Chem.Bond, at) -> Point | None:
+    """Centre of the smallest ring holding ``bond``, as drawn."""
+    rings = [r for r in heavy.GetRingInfo().BondRings() if bond.GetIdx() in r]
+    if not rings:
+        return None
+    atoms = {
+        i
+        for b in min(rings, key=len)
+        for i in (heavy.GetBondWithIdx(b).GetBeginAtomIdx(), heavy.GetBondWithIdx(b).GetEndAtomIdx())
+    }
+    points = [at(i) for i in atoms]
+    return sum(p[0] for p in points) / len(points), sum(p[1] for p in points) / len(points)
 
 
 def _wavy(a: Point, b: Point, box_a, box_b, style: Style) -> list[Stroke]:
@@ -270,15 +285,31 @@ def _atom_runs(
     return tuple(merged), (start, start + len(symbol))
 
 
-def _bond_lines(a: Point, b: Point, order: int, box_a, box_b, bond_pt: float, style: Style) -> list[Stroke]:
+def _bond_lines(
+    a: Point, b: Point, order: int, box_a, box_b, bond_pt: float, style: Style, inside: Point | None = None
+) -> list[Stroke]:
+    """A bond's lines. A double bond in a ring (``inside``: the ring's centre) is drawn the usual
+    way: one line on the bond, a shorter one inside the ring; other double bonds as a centred pair."""
     length = math.dist(a, b) or 1.0
     nx, ny = -(b[1] - a[1]) / length, (b[0] - a[0]) / length
     offsets = {1: (0.0,), 2: (-0.5, 0.5), 3: (-1.0, 0.0, 1.0)}[order]
+    trim = [0.0] * len(offsets)
+    if order == 2 and inside is not None:
+        towards = 1.0 if (inside[0] - a[0]) * nx + (inside[1] - a[1]) * ny > 0 else -1.0
+        offsets, trim = (0.0, towards), [0.0, 0.15]
     out = []
-    for o in offsets:
+    for o, cut in zip(offsets, trim):
         d = o * _SPACING * bond_pt
         p, q = (a[0] + nx * d, a[1] + ny * d), (b[0] + nx * d, b[1] + ny * d)
         start = clip_to_box(q, p, box_a) if box_a else p
         end = clip_to_box(start, q, box_b) if box_b else q
+        if cut:
+            start, end = (
+                (start[0] + (end[0] - start[0]) * cut, start[1] + (end[1] - start[1]) * cut),
+                (
+                    end[0] - (end[0] - start[0]) * cut,
+                    end[1] - (end[1] - start[1]) * cut,
+                ),
+            )
         out.append(Stroke(start, end, style.line_width, "bond" if order == 1 else "double"))
     return out
