@@ -22,12 +22,15 @@ from .layout import (
     Text,
     TextRun,
     anchored_label,
+    bond_lines,
     clashes,
     clip_to_box,
     label_runs,
     ring_picture,
     segment_hits_box,
     symbol_box,
+    trimmed,
+    unit_vector,
 )
 from .molgraph import MolGraph
 from .render.style import Style
@@ -36,7 +39,6 @@ from .skeletal import MAX_ATOMS as MAX_SKELETAL_ATOMS
 from .skeletal import draw_groups, group_atoms, hidden_by_a_label
 from .substituents import condensed_label, fragments, substituent_groups
 
-DOUBLE_SPACING = 0.18  # of the bond length, between the lines of a double bond (common practice)
 # chairs are drawn larger, in these steps, until no label touches a bond or another label
 CHAIR_SCALES = (1.0, 1.12, 1.25, 1.4, 1.6, 1.8, 2.0, 2.3, 2.6)
 LENGTHS = (1.0, 0.85, 1.2, 0.7, 1.4)  # of the bond length, tried in turn where a label touches
@@ -152,8 +154,7 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
         ring_boxes[k] = (x0 - pad, y0 - pad, x1 + pad, y1 + pad)
     for k in range(6):
         a, b = at[k], at[(k + 1) % 6]
-        start = clip_to_box(b, a, ring_boxes[k]) if k in ring_boxes else a
-        end = clip_to_box(a, b, ring_boxes[(k + 1) % 6]) if (k + 1) % 6 in ring_boxes else b
+        start, end = trimmed(a, b, ring_boxes.get(k), ring_boxes.get((k + 1) % 6))
         panel.strokes.append(Stroke(start, end, style.line_width, "ring", (depth[k] + depth[(k + 1) % 6]) / 2))
     stereo_atoms = {c.atom for c in ring.stereo}
     skeletal: list[tuple[int, int, Point]] = []
@@ -188,9 +189,9 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
     for atom_idx in ring.trigonal_atoms:
         # a C=O, C=CH2 or the group on a planar N: in the ring's plane, along the outer bisector
         k = ring.atoms.index(atom_idx)
-        u1 = _unit((at[(k - 1) % 6][0] - at[k][0], at[(k - 1) % 6][1] - at[k][1]))
-        u2 = _unit((at[(k + 1) % 6][0] - at[k][0], at[(k + 1) % 6][1] - at[k][1]))
-        out = _unit((-(u1[0] + u2[0]), -(u1[1] + u2[1])))
+        u1 = unit_vector((at[(k - 1) % 6][0] - at[k][0], at[(k - 1) % 6][1] - at[k][1]))
+        u2 = unit_vector((at[(k + 1) % 6][0] - at[k][0], at[(k + 1) % 6][1] - at[k][1]))
+        out = unit_vector((-(u1[0] + u2[0]), -(u1[1] + u2[1])))
         for label, double, other, estimated in _flat_groups(mol, atom_idx, set(ring.atoms), drawn):
             reach = style.bond_length * scale
             end = (at[k][0] + out[0] * reach, at[k][1] + out[1] * reach)
@@ -235,8 +236,8 @@ def _number(panel: Panel, ring: RingResult, at: list[Point], bond: float, style:
             continue
         number = locant.lstrip("C")
         runs = (TextRun(number, NORMAL),)
-        u1 = _unit((at[k - 1][0] - at[k][0], at[k - 1][1] - at[k][1]))
-        u2 = _unit((at[(k + 1) % 6][0] - at[k][0], at[(k + 1) % 6][1] - at[k][1]))
+        u1 = unit_vector((at[k - 1][0] - at[k][0], at[k - 1][1] - at[k][1]))
+        u2 = unit_vector((at[(k + 1) % 6][0] - at[k][0], at[(k + 1) % 6][1] - at[k][1]))
         inside = math.degrees(math.atan2(u1[1] + u2[1], u1[0] + u2[0]))
         placed = False
         for turn in (0, 25, -25, 50, -50, 80, -80, 180):
@@ -290,6 +291,7 @@ def _bond_with_label(
     runs, span = label_runs(DRAWN_AS.get(label, label), reverse)
     if formula and direction[0] < -0.25:
         span = (sum(len(r.text) for r in runs) - 1, sum(len(r.text) for r in runs))  # ends at the bond
+    bond_pt = length  # multiple-bond spacing follows the chair's bond length, not the stretch below
     if start_box is not None:
         # from a labelled ring atom (N, O): measured from the edge of its label, not its centre,
         # so that the bond is not a stub
@@ -301,7 +303,7 @@ def _bond_with_label(
     for factor in LENGTHS:
         end = (start[0] + direction[0] * length * factor, start[1] + direction[1] * length * factor)
         text = anchored_label(runs, span, end, style.font_size)
-        strokes = _bond_strokes(start, end, direction, text, span, start_box, depth, style, double)
+        strokes = _bond_strokes(start, end, direction, text, span, start_box, depth, style, double, bond_pt)
         touching = _touches(strokes, text, panel, H_CLEARANCE if label == "H" else LABEL_CLEARANCE)
         if best is None or touching < best[0]:
             best = (touching, strokes, text)
@@ -314,23 +316,13 @@ def _bond_with_label(
     panel.texts.append(best[2])
 
 
-def _bond_strokes(start, end, direction, text, span, start_box, depth, style: Style, double: bool) -> list[Stroke]:
+def _bond_strokes(
+    start, end, direction, text, span, start_box, depth, style: Style, double: bool, bond_pt: float
+) -> list[Stroke]:
     if direction[0] < -0.25:  # a bond coming from the right meets the attachment unit's count too
         span = (span[0], sum(len(r.text) for r in text.runs))
     box = symbol_box(text, span, style.label_gap)
-    if not double:
-        base = clip_to_box(end, start, start_box) if start_box else start
-        return [Stroke(base, clip_to_box(start, end, box), style.line_width, "bond", depth)]
-    off = DOUBLE_SPACING * style.bond_length / 2
-    n = (-direction[1] * off, direction[0] * off)
-    out = []
-    for sign in (1, -1):
-        a = (start[0] + sign * n[0], start[1] + sign * n[1])
-        b = (end[0] + sign * n[0], end[1] + sign * n[1])
-        # each line of the pair stops at the label by itself (the offset lines meet its box elsewhere)
-        a2 = clip_to_box(b, a, start_box) if start_box else a
-        out.append(Stroke(a2, clip_to_box(a2, b, box), style.line_width, "double", depth))
-    return out
+    return bond_lines(start, end, 2 if double else 1, start_box, box, bond_pt, style.line_width, depth=depth)
 
 
 def _touches(strokes: list[Stroke], text: Text, panel: Panel, clearance: float) -> int:
@@ -364,8 +356,3 @@ def _flat_groups(mol: Chem.Mol, atom_idx: int, ring_atoms: set[int], drawn: set)
             group = substituent_groups(mol, graph, [(atom_idx, other.GetIdx())])[(atom_idx, other.GetIdx())]
             out.append((group.label, False, other.GetIdx(), bool(group.estimated_as)))
     return out
-
-
-def _unit(v: Point) -> Point:
-    n = math.hypot(*v) or 1.0
-    return v[0] / n, v[1] / n

@@ -30,6 +30,7 @@ ELEVATION_DEG = 14.0  # view from above; below about 18 deg every ring atom stay
 _H = 1 / (4 * math.sqrt(2))  # half the ring's thickness for radius 1 and tetrahedral angles
 _BOND_3D = math.sqrt(1 + 4 * _H * _H)  # ring bond length for radius 1
 SUB_SCALE, SUB_DROP, SUP_RISE = 0.7, 0.25, 0.45  # subscript size and shifts, of the font size
+DOUBLE_SPACING = 0.18  # of the bond length, between the lines of a multiple bond (common practice)
 
 Point = tuple[float, float]
 
@@ -149,8 +150,8 @@ def chair_geometry(up: tuple[bool, ...]) -> ChairGeometry:
         px, py, pd = project(a)
         points.append((px, py))
         depth.append(pd)
-        axial.append(_unit2(project(ax)[:2]))
-        equatorial.append(_unit2(project(eq)[:2]))
+        axial.append(unit_vector(project(ax)[:2]))
+        equatorial.append(unit_vector(project(eq)[:2]))
     return ChairGeometry(tuple(points), tuple(axial), tuple(equatorial), tuple(depth), tuple(up))
 
 
@@ -185,7 +186,7 @@ def _unit(v):
     return tuple(c / n for c in v)
 
 
-def _unit2(v) -> Point:
+def unit_vector(v) -> Point:
     n = math.hypot(v[0], v[1])
     return v[0] / n, v[1] / n
 
@@ -277,6 +278,43 @@ def clip_to_box(start: Point, end: Point, box: tuple[float, float, float, float]
     if t_enter > t_exit:
         return end
     return start[0] + dx * t_enter, start[1] + dy * t_enter
+
+
+def trimmed(a: Point, b: Point, box_a=None, box_b=None) -> tuple[Point, Point]:
+    """The segment a-b with each end stopped at the label box around it (where there is one)."""
+    start = clip_to_box(b, a, box_a) if box_a else a
+    return start, clip_to_box(start, b, box_b) if box_b else b
+
+
+def bond_lines(
+    a: Point,
+    b: Point,
+    order: int,
+    box_a,
+    box_b,
+    bond_pt: float,
+    width: float,
+    inside: Point | None = None,
+    depth: float = 0.0,
+) -> list[Stroke]:
+    """A bond's lines, each end stopped at its label box. A double bond in a ring (``inside``: the
+    ring's centre) is drawn the usual way: one line on the bond, a shorter one inside the ring;
+    other double and triple bonds as centred lines, ``DOUBLE_SPACING`` of ``bond_pt`` apart."""
+    length = math.dist(a, b) or 1.0
+    nx, ny = -(b[1] - a[1]) / length, (b[0] - a[0]) / length
+    offsets = {1: (0.0,), 2: (-0.5, 0.5), 3: (-1.0, 0.0, 1.0)}[order]
+    trim = [0.0] * len(offsets)
+    if order == 2 and inside is not None:
+        towards = 1.0 if (inside[0] - a[0]) * nx + (inside[1] - a[1]) * ny > 0 else -1.0
+        offsets, trim = (0.0, towards), [0.0, 0.15]
+    out = []
+    for o, cut in zip(offsets, trim):
+        d = o * DOUBLE_SPACING * bond_pt
+        start, end = trimmed((a[0] + nx * d, a[1] + ny * d), (b[0] + nx * d, b[1] + ny * d), box_a, box_b)
+        if cut:
+            start, end = _lerp(start, end, cut), _lerp(start, end, 1 - cut)
+        out.append(Stroke(start, end, width, "bond" if order == 1 else "double", depth))
+    return out
 
 
 def boxes_overlap(a, b, slack: float = 0.0) -> bool:

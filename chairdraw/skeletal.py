@@ -17,13 +17,12 @@ from rdkit.Geometry import Point2D
 
 from ._rdkit import without_hs
 from .labels import NORMAL, SUB, SUP
-from .layout import Point, Polygon, Stroke, Text, TextRun, anchored_label, clip_to_box, symbol_box
+from .layout import Point, Polygon, Stroke, Text, TextRun, anchored_label, bond_lines, symbol_box, trimmed
 from .render import text as fonttext
 from .render.style import Style
 
 MAX_ATOMS = 40  # a larger group keeps its formula label: a whole second molecule is not a substituent
 RDKIT_BOND = 1.5  # RDKit's depiction bond length
-_SPACING = 0.18  # of the bond length, between the lines of a multiple bond (common practice)
 
 
 def group_atoms(mol: Chem.Mol, ring_atom: int, first: int) -> list[int]:
@@ -187,7 +186,7 @@ def _draw(heavy: Chem.Mol, at, atoms: list[int], anchors: set[int], boxes: dict,
             strokes += _wavy(pa, pb, boxes.get(a), boxes.get(b), style)
         else:
             centre = _ring_centre(heavy, bond, at) if order == 2 and bond.IsInRing() else None
-            strokes += _bond_lines(pa, pb, order, boxes.get(a), boxes.get(b), bond_pt, style, centre)
+            strokes += bond_lines(pa, pb, order, boxes.get(a), boxes.get(b), bond_pt, style.line_width, centre)
     return strokes, texts, wedges
 
 
@@ -207,8 +206,7 @@ def _ring_centre(heavy: Chem.Mol, bond: Chem.Bond, at) -> Point | None:
 
 def _wavy(a: Point, b: Point, box_a, box_b, style: Style) -> list[Stroke]:
     """A wavy bond (unknown configuration) as a small zigzag."""
-    start = clip_to_box(b, a, box_a) if box_a else a
-    end = clip_to_box(start, b, box_b) if box_b else b
+    start, end = trimmed(a, b, box_a, box_b)
     length = math.dist(start, end) or 1.0
     nx, ny = -(end[1] - start[1]) / length * 1.2, (end[0] - start[0]) / length * 1.2
     steps = max(4, int(length / 2.0))
@@ -226,8 +224,7 @@ HASH_LINES = 6
 
 def _wedge(a: Point, b: Point, solid: bool, box_a, box_b, style: Style) -> tuple[list[Stroke], list[Polygon]]:
     """A wedge (solid) or hash from a (narrow end, the stereocentre) to b."""
-    start = clip_to_box(b, a, box_a) if box_a else a
-    end = clip_to_box(start, b, box_b) if box_b else b
+    start, end = trimmed(a, b, box_a, box_b)
     length = math.dist(start, end) or 1.0
     nx, ny = -(end[1] - start[1]) / length * WEDGE_WIDTH / 2, (end[0] - start[0]) / length * WEDGE_WIDTH / 2
     if solid:
@@ -283,33 +280,3 @@ def _atom_runs(
         else:
             merged.append(r)
     return tuple(merged), (start, start + len(symbol))
-
-
-def _bond_lines(
-    a: Point, b: Point, order: int, box_a, box_b, bond_pt: float, style: Style, inside: Point | None = None
-) -> list[Stroke]:
-    """A bond's lines. A double bond in a ring (``inside``: the ring's centre) is drawn the usual
-    way: one line on the bond, a shorter one inside the ring; other double bonds as a centred pair."""
-    length = math.dist(a, b) or 1.0
-    nx, ny = -(b[1] - a[1]) / length, (b[0] - a[0]) / length
-    offsets = {1: (0.0,), 2: (-0.5, 0.5), 3: (-1.0, 0.0, 1.0)}[order]
-    trim = [0.0] * len(offsets)
-    if order == 2 and inside is not None:
-        towards = 1.0 if (inside[0] - a[0]) * nx + (inside[1] - a[1]) * ny > 0 else -1.0
-        offsets, trim = (0.0, towards), [0.0, 0.15]
-    out = []
-    for o, cut in zip(offsets, trim):
-        d = o * _SPACING * bond_pt
-        p, q = (a[0] + nx * d, a[1] + ny * d), (b[0] + nx * d, b[1] + ny * d)
-        start = clip_to_box(q, p, box_a) if box_a else p
-        end = clip_to_box(start, q, box_b) if box_b else q
-        if cut:
-            start, end = (
-                (start[0] + (end[0] - start[0]) * cut, start[1] + (end[1] - start[1]) * cut),
-                (
-                    end[0] - (end[0] - start[0]) * cut,
-                    end[1] - (end[1] - start[1]) * cut,
-                ),
-            )
-        out.append(Stroke(start, end, style.line_width, "bond" if order == 1 else "double"))
-    return out
