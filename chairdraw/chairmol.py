@@ -16,8 +16,8 @@ from rdkit.Chem import rdDepictor
 from rdkit.Geometry import Point2D
 
 from ._rdkit import without_hs
+from .chairpanel import chair_panel, shown_chairs
 from .errors import FigureError
-from .figure import chair_panel
 from .render.style import CHAIRS, Style
 from .results import Analysis
 
@@ -34,8 +34,7 @@ def chair_molblock(analysis: Analysis, ring: int = 0, chair: str = "favored", st
     if not 0 <= ring < len(analysis.rings):
         raise FigureError(f"ring {ring} asked for, but the analysis has {len(analysis.rings)} ring result(s)")
     result = analysis.rings[ring]
-    low = next((i for i, c in enumerate(result.chairs) if c.favored), 0)
-    shown = result.chairs[low if chair == "favored" else 1 - low]
+    shown = result.chairs[shown_chairs(result, chair)[0]]
     style = (style or Style()).replace(hydrogens="stereo")
     panel, _ = chair_panel(analysis, result, shown, style)
     source = result.configuration.molecule if result.configuration is not None else analysis.mol

@@ -33,7 +33,7 @@ from .layout import (
     unit_vector,
 )
 from .molgraph import MolGraph
-from .render.style import Style
+from .render.style import CHAIRS, Style
 from .results import Analysis, Chair, RingResult
 from .skeletal import MAX_ATOMS as MAX_SKELETAL_ATOMS
 from .skeletal import draw_groups, group_atoms, hidden_by_a_label
@@ -196,7 +196,7 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
             reach = style.bond_length * scale
             end = (at[k][0] + out[0] * reach, at[k][1] + out[1] * reach)
             panel.atoms[(atom_idx, other)] = end
-            if estimated or not can_parse(label) or len(label) > MAX_LABEL:
+            if estimated or not _has_a_label(label):
                 if len(group_atoms(mol, atom_idx, other)) <= MAX_SKELETAL_ATOMS:
                     skeletal.append((atom_idx, other, end))
                     continue
@@ -271,7 +271,12 @@ def _skeletal(position, mol: Chem.Mol) -> bool:
         return False
     if hidden_by_a_label(mol, position.ring_atom, position.atom):
         return True
-    return position.estimated or not can_parse(position.label) or len(position.label) > MAX_LABEL
+    return position.estimated or not _has_a_label(position.label)
+
+
+def _has_a_label(label: str) -> bool:
+    """Whether a group's label is a condensed label short enough to write beside a chair."""
+    return can_parse(label) and len(label) <= MAX_LABEL
 
 
 def _shown(label: str, hetero: bool, stereocentre: bool, style: Style) -> bool:
@@ -356,3 +361,14 @@ def _flat_groups(mol: Chem.Mol, atom_idx: int, ring_atoms: set[int], drawn: set)
             group = substituent_groups(mol, graph, [(atom_idx, other.GetIdx())])[(atom_idx, other.GetIdx())]
             out.append((group.label, False, other.GetIdx(), bool(group.estimated_as)))
     return out
+
+
+def shown_chairs(ring: RingResult, chairs: str) -> list[int]:
+    """Chair numbers drawn for ``chairs``: both, the favoured one (the first of a degenerate
+    pair), or the other one ('flip')."""
+    if chairs not in CHAIRS:
+        raise FigureError(f"chairs must be one of {', '.join(CHAIRS)}, not {chairs!r}")
+    if chairs == "both":
+        return [0, 1]
+    low = next((i for i, c in enumerate(ring.chairs) if c.favored), 0)
+    return [low if chairs == "favored" else 1 - low]

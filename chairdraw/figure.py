@@ -11,12 +11,12 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
-from .chairpanel import Panel, chair_panel, needed_scale
+from .chairpanel import Panel, chair_panel, needed_scale, shown_chairs
 from .errors import FigureError
 from .labels import NORMAL
 from .layout import Polygon, Stroke, Text, TextRun, centred_text, chair_name_runs, with_gaps
 from .render import text as fonttext
-from .render.style import CHAIRS, Style
+from .render.style import Style
 from .report import caveats, percent
 from .results import Analysis, Chair, RingResult
 from .skeletal import draw_flat
@@ -162,17 +162,6 @@ def ring_row(
             )
         )
     return row
-
-
-def shown_chairs(ring: RingResult, chairs: str) -> list[int]:
-    """Chair numbers drawn for ``chairs``: both, the favoured one (the first of a degenerate
-    pair), or the other one ('flip')."""
-    if chairs not in CHAIRS:
-        raise FigureError(f"chairs must be one of {', '.join(CHAIRS)}, not {chairs!r}")
-    if chairs == "both":
-        return [0, 1]
-    low = next((i for i, c in enumerate(ring.chairs) if c.favored), 0)
-    return [low if chairs == "favored" else 1 - low]
 
 
 def row_heading(ring: RingResult, number: int, rows: int) -> str | None:
