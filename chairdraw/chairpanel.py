@@ -14,7 +14,7 @@ from dataclasses import dataclass, field
 from rdkit import Chem
 
 from .errors import FigureError
-from .labels import DRAWN_AS, NORMAL, SUP, can_parse
+from .labels import DRAWN_AS, NORMAL, ON_NITROGEN, SUP, can_parse
 from .layout import (
     Point,
     Polygon,
@@ -197,9 +197,14 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
             end = (at[k][0] + out[0] * reach, at[k][1] + out[1] * reach)
             panel.atoms[(atom_idx, other)] = end
             if estimated or not _has_a_label(label):
-                if len(group_atoms(mol, atom_idx, other)) <= MAX_SKELETAL_ATOMS:
+                condensed = None if double else _condensed(mol, atom_idx, other)
+                if condensed is not None:
+                    label, estimated = condensed, False
+                elif len(group_atoms(mol, atom_idx, other)) <= MAX_SKELETAL_ATOMS:
                     skeletal.append((atom_idx, other, end))
                     continue
+            if ring.atoms[k] in hetero_atoms and mol.GetAtomWithIdx(atom_idx).GetSymbol() == "N":
+                label = ON_NITROGEN.get(label, label)
             labelled.append((at[k], out, reach, label, ring_boxes.get(k), depth[k], double, estimated))
     # skeletal groups first (RDKit places their atoms), then labels around them, H last: an H
     # label gives way (a shorter or longer bond, or none) to the groups around it

@@ -19,6 +19,8 @@ from .errors import LabelError
 NORMAL, SUB, SUP = "normal", "sub", "sup"
 # report labels that a structure drawing writes with the usual abbreviation (common practice)
 DRAWN_AS = {"COMe": "Ac", "cHex": "Cy", "SiMe3": "TMS", "COPh": "Bz", "CH2Ph": "Bn"}
+# on a nitrogen, an alkoxycarbonyl is a carbamate protecting group and is written as one
+ON_NITROGEN = {"CO2tBu": "Boc", "CO2Bn": "Cbz", "CO2Me": "CO2Me"}
 _SHOWN = {"#": "\u2261", "-": "\u2212"}  # triple bond, minus sign: what a printed label shows
 
 

@@ -106,11 +106,13 @@ def recognise(fragment: str) -> Group:
     size = sum(1 for a in mol.GetAtoms() if a.GetAtomicNum() > 1)
     if rows:
         return Group(rows[0].label, fragment, pair_class, tuple(rows), size=size)
+    # a group without an A-value row is named by its usual label (labels.txt: NHAc, OBn) or its formula
+    name = _drawing_labels().get(fragment) or _formula_label(mol)
     for cls, patt in _compiled_classes():
         if mol.HasSubstructMatch(patt):
             rows_ = _rows_by_label(cls.representative)
-            return Group(_formula_label(mol), fragment, cls.pair_class, rows_, cls.name, size=size)
-    return Group(_formula_label(mol), fragment, pair_class, (_placeholder(fragment),), "unclassified", size=size)
+            return Group(name, fragment, cls.pair_class, rows_, cls.name, size=size)
+    return Group(name, fragment, pair_class, (_placeholder(fragment),), "unclassified", size=size)
 
 
 def _placeholder(fragment: str) -> tables.AValue:
@@ -336,9 +338,30 @@ def _canonical_piece(smiles: str) -> str | None:
 
 
 @cache
+def _drawing_labels() -> dict[str, str]:
+    out = {}
+    for label, group in tables.drawing_labels():
+        out[_table_key(group)] = label
+    return out
+
+
+def drawing_label(fragment: str) -> str | None:
+    """The condensed label of a group: its A-value table label, else its labels.txt name
+    (NHAc, OBn, OBz ...), else None."""
+    group = recognise(fragment)
+    if group.estimated_as is None and group.label not in ("?",):
+        return group.label
+    return _drawing_labels().get(fragment)
+
+
+@cache
 def condensed_label(fragment: str, links: int = 2) -> str | None:
-    """A condensed label for a group the table has no row for, where it is a table group behind
-    one or two CH2 links: CH2OTBS, CH2OAc, CH2CH2OH. None when it is not."""
+    """A condensed label for a group the A-value table has no row for: its labels.txt name
+    (NHAc, OBn), or a named group behind one or two CH2 links (CH2OTBS, CH2OAc, CH2CH2OH,
+    CH2OBn). None when there is none."""
+    named = _drawing_labels().get(fragment)
+    if named is not None:
+        return named
     mol = Chem.MolFromSmiles(fragment)
     if mol is None:
         return None
@@ -365,8 +388,8 @@ def condensed_label(fragment: str, links: int = 2) -> str | None:
             return None
         mol = rest.GetMol()
         prefix += "CH2"
-        group = recognise(Chem.MolToSmiles(mol))
+        label = drawing_label(Chem.MolToSmiles(mol))
         # an alkyl behind CH2 (CH2Et) reads worse than the skeletal chain: not offered
-        if group.estimated_as is None and group.label not in ("?", "H", "D", "T", "Me", "Et", "iPr", "tBu"):
-            return prefix + group.label
+        if label is not None and label not in ("H", "D", "T", "Me", "Et", "iPr", "tBu"):
+            return prefix + label
     return None

@@ -635,3 +635,24 @@ def test_e_and_z_exocyclic_isomers_differ():
 def test_racemic_input_says_so_in_the_figure():
     figure = chairdraw.draw("C[C@H]1CC[C@@H](O)CC1 |&1:1,4|")
     assert any(t.role == "note" and "racemic" in t.plain for t in figure.texts)
+
+
+def test_protected_sugars_get_their_usual_labels():
+    glcnac = chairdraw.draw("CC(=O)N[C@H]1[C@@H](O)O[C@H](CO)[C@@H](O)[C@@H]1O")  # N-acetylglucosamine
+    assert {"NHAc", "AcHN"} & {t.plain for t in glcnac.texts}
+    benzyl = chairdraw.draw("CO[C@@H]1O[C@H](COCc2ccccc2)[C@@H](OCc2ccccc2)[C@H](OCc2ccccc2)[C@H]1OCc1ccccc1")
+    texts = {t.plain for t in benzyl.texts}
+    assert {"OBn", "BnO"} & texts and {"CH2OBn", "BnOH2C"} & texts
+
+
+@pytest.mark.parametrize(
+    "smiles,label",
+    [
+        ("CC(C)(C)OC(=O)N1CCCC[C@@H]1C", "Boc"),  # carbamates on a ring N are written as such
+        ("O=C(OCc1ccccc1)N1CCCC[C@@H]1C", "Cbz"),
+        ("O=C(c1ccccc1)N1CCCC[C@@H]1C", "Bz"),
+        ("CC(=O)N1CCCC[C@@H]1C", "Ac"),
+    ],
+)
+def test_n_protecting_groups_are_written_the_usual_way(smiles, label):
+    assert label in {t.plain for t in chairdraw.draw(smiles).texts}

@@ -135,6 +135,12 @@ def classes() -> tuple[SubstituentClass, ...]:
 
 
 @cache
+def drawing_labels() -> tuple[tuple[str, str], ...]:
+    """(label, group SMILES) of labels.txt: names for drawing groups that have no A-value row."""
+    return tuple((r["label"], r["group"]) for _, r in _rows("labels.txt"))
+
+
+@cache
 def pair_terms() -> tuple[PairTerm, ...]:
     known = sources()
     out = []
