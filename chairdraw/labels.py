@@ -58,9 +58,21 @@ class Label:
     units: tuple[Unit, ...]
     charge: str = ""  # the charge of the whole group (NH3+): written last in either direction
 
+    def groups(self) -> list[tuple[Unit, ...]]:
+        """Units as they move when the label is reversed: a bracketed single atom, =O written
+        (O), stays with the atom before it (S(O)Me -> MeS(O), P(O)Ph2 -> Ph2P(O))."""
+        out: list[tuple[Unit, ...]] = []
+        for u in self.units:
+            oxo = not isinstance(u.head, str) and len(u.head) == 1 and isinstance(u.head[0].head, str)
+            if out and oxo and out[-1][-1].head != "H":
+                out[-1] = out[-1] + (u,)
+            else:
+                out.append((u,))
+        return out
+
     def runs(self, reverse: bool = False) -> list[tuple[str, str]]:
-        units = reversed(self.units) if reverse else self.units
-        pieces = [r for u in units for r in u.runs(reverse)]
+        groups = list(reversed(self.groups())) if reverse else self.groups()
+        pieces = [r for g in groups for u in g for r in u.runs(reverse)]
         if self.charge:
             pieces.append(("".join(_SHOWN.get(c, c) for c in self.charge), SUP))
         merged: list[tuple[str, str]] = []
@@ -74,10 +86,9 @@ class Label:
     def attachment(self, reverse: bool = False) -> tuple[int, int]:
         """(start, end) character offsets, in the joined runs, of the attachment unit's first
         symbol: the glyphs a bond to the ring should point at."""
-        units = list(reversed(self.units)) if reverse else list(self.units)
-        first = units[-1] if reverse else units[0]
-        before = sum(len(t) for u in (units[:-1] if reverse else []) for t, _ in u.runs(reverse))
-        head = first.runs(reverse)[0][0]
+        groups = list(reversed(self.groups())) if reverse else self.groups()
+        before = sum(len(t) for g in (groups[:-1] if reverse else []) for u in g for t, _ in u.runs(reverse))
+        head = self.units[0].runs(reverse)[0][0]
         return before, before + len(head)
 
     def reversed_text(self) -> str:

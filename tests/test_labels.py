@@ -22,6 +22,9 @@ REVERSED = [
     ("CO2H", "HO2C"),
     ("SO2Ph", "PhO2S"),
     ("CH(CH3)2", "(H3C)2HC"),
+    ("S(O)Me", "MeS(O)"),  # a bracketed =O stays with its atom
+    ("P(O)Ph2", "Ph2P(O)"),
+    ("C(O)Me", "MeC(O)"),
     ("C#CH", "HC\u2261C"),
     ("CH=CH2", "H2C=HC"),
     ("NH3+", "H3N+"),
