@@ -65,7 +65,22 @@ def test_the_atom_numbered_1_sits_on_the_right_tip():
 
 # --- stereo read back from the drawing ------------------------------------------------------------
 
-GROUPS = ["C", "O", "Cl", "F", "OC", "C(=O)OC", "CC", "N", "C(C)(C)C", "C(F)(F)F"]
+GROUPS = [
+    "C",
+    "O",
+    "Cl",
+    "F",
+    "OC",
+    "C(=O)OC",
+    "CC",
+    "N",
+    "C(C)(C)C",
+    "C(F)(F)F",
+    "CCC",  # skeletal (no label of its own)
+    "COC(C)=O",  # CH2OAc (condensed)
+    "NC(C)=O",  # NHAc (labels.txt)
+    "OCc1ccccc1",  # OBn (labels.txt)
+]
 
 
 def _lift(analysis, ring, chair) -> Chem.Mol:
@@ -169,7 +184,7 @@ def substituted_rings(draw):
     return Chem.MolToSmiles(mol)
 
 
-@settings(max_examples=300, deadline=None, suppress_health_check=[HealthCheck.filter_too_much])
+@settings(max_examples=2000, deadline=None, suppress_health_check=[HealthCheck.filter_too_much])
 @given(substituted_rings())
 def test_drawn_chairs_read_back_as_the_input_stereoisomer(smiles):
     if smiles is None:
