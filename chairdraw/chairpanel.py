@@ -8,6 +8,7 @@ figure draws every chair larger (``needed_scale``), so that all chairs of a figu
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from dataclasses import dataclass, field
 
@@ -77,7 +78,7 @@ class Panel:
 
         return Panel(
             [Stroke(mv(s.start), mv(s.end), s.width, s.role, s.depth) for s in self.strokes],
-            [Text(t.runs, t.x + dx, t.y + dy, t.size, t.weight, t.role, t.plain) for t in self.texts],
+            [dataclasses.replace(t, x=t.x + dx, y=t.y + dy) for t in self.texts],
             [Polygon(tuple(mv(q) for q in p.points), p.role) for p in self.polygons],
         )
 
@@ -148,7 +149,7 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
         runs = (TextRun(atom.GetSymbol(), NORMAL),) + (
             (TextRun("+" if charge > 0 else "\u2212", SUP),) if charge else ()
         )
-        text = anchored_label(runs, (0, len(atom.GetSymbol())), at[k], style.font_size, "atom")
+        text = anchored_label(runs, (0, len(atom.GetSymbol())), at[k], style.font_size, "atom", style.font)
         panel.texts.append(text)
         x0, y0, x1, y1 = text.extent()  # the charge too: ring bonds stop short of all of it
         ring_boxes[k] = (x0 - pad, y0 - pad, x1 + pad, y1 + pad)
@@ -249,7 +250,7 @@ def _number(panel: Panel, ring: RingResult, at: list[Point], bond: float, style:
             for reach in (0.3, 0.42):
                 angle = math.radians(inside + turn)
                 c = (at[k][0] + math.cos(angle) * reach * bond, at[k][1] + math.sin(angle) * reach * bond)
-                text = anchored_label(runs, (0, len(number)), c, size, "locant")
+                text = anchored_label(runs, (0, len(number)), c, size, "locant", style.font)
                 if not clashes(panel.strokes, [text], tolerance=-0.5, others=panel.texts):
                     panel.texts.append(text)
                     placed = True
@@ -312,7 +313,7 @@ def _bond_with_label(
     best: tuple[int, list[Stroke], Text] | None = None
     for factor in LENGTHS:
         end = (start[0] + direction[0] * length * factor, start[1] + direction[1] * length * factor)
-        text = anchored_label(runs, span, end, style.font_size)
+        text = anchored_label(runs, span, end, style.font_size, font=style.font)
         strokes = _bond_strokes(start, end, direction, text, span, start_box, depth, style, double, bond_pt)
         touching = _touches(strokes, text, panel, H_CLEARANCE if label == "H" else LABEL_CLEARANCE)
         if best is None or touching < best[0]:

@@ -68,6 +68,11 @@ def _parser() -> argparse.ArgumentParser:
         q.add_argument("--bond-length", type=float, metavar="PT", help="bond length in pt (14.4)")
         q.add_argument("--line-width", type=float, metavar="PT", help="line width in pt (0.6)")
         q.add_argument("--font-size", type=float, metavar="PT", help="label font size in pt (10)")
+        q.add_argument(
+            "--font",
+            metavar="FILE.ttf",
+            help="a TrueType/OpenType font file for all text (default: the shipped Liberation Sans)",
+        )
 
     w = sub.add_parser("draw", help="draw both chairs of each ring as SVG, PNG or PDF")
     w.add_argument("input", help="SMILES, CXSMILES, InChI, a molfile/SDF path, or - for standard input")
@@ -97,6 +102,7 @@ def _style(args) -> Style:
         bond_length=args.bond_length,
         line_width=args.line_width,
         font_size=args.font_size,
+        font_file=args.font,
         hydrogens=args.hydrogens,
         units=args.units,
         numbering=args.numbering or None,

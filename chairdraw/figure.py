@@ -74,7 +74,7 @@ def _caption(chair: Chair, style: Style, bold: bool, cx: float, baseline: float)
     runs = chair_name_runs(chair.name) + (TextRun(f"  {percent(chair.population)}%", NORMAL),)
     if bold:
         runs += (TextRun("  favoured", NORMAL),)
-    return centred_text(runs, cx, baseline, style.caption_size, "bold" if bold else "regular", "caption")
+    return centred_text(runs, cx, baseline, style.caption_size, "bold" if bold else "regular", "caption", style.font)
 
 
 def _arrows(x0: float, x1: float, y: float, towards: int | None, style: Style) -> Panel:
@@ -115,7 +115,7 @@ def ring_row(
     shown = shown_chairs(ring, chairs)
     row = Panel()
     energy = _energy_text(ring.delta_g_kcal_mol, style, analysis.temperature_K)
-    spacing = max(style.chair_spacing, fonttext.width(energy, style.caption_size) + 10)
+    spacing = max(style.chair_spacing, fonttext.width(energy, style.caption_size, "regular", style.font) + 10)
     x = 0.0
     built = []
     for n, i in enumerate(shown):
@@ -136,6 +136,7 @@ def ring_row(
             style.caption_size,
             "regular",
             "energy",
+            style.font,
         )
         row.texts.append(text)
         bottom = max(bottom, text.extent()[3])  # captions go below the energy, never beside it
@@ -146,7 +147,16 @@ def ring_row(
         baseline += 1.4 * style.caption_size
         line = f"Note: {note}; the figure shows the chair model"
         row.texts.append(
-            Text((TextRun(line, NORMAL),), row.box()[0], baseline, style.caption_size, "regular", "note", line)
+            Text(
+                (TextRun(line, NORMAL),),
+                row.box()[0],
+                baseline,
+                style.caption_size,
+                "regular",
+                "note",
+                line,
+                style.font,
+            )
         )
     if heading:
         top = row.box()[1]
@@ -159,6 +169,7 @@ def ring_row(
                 "regular",
                 "title",
                 heading,
+                style.font,
             )
         )
     return row
@@ -198,6 +209,7 @@ def flat_panel(analysis: Analysis, style: Style) -> Panel:
             style.caption_size,
             "regular",
             "caption",
+            style.font,
         )
     )
     return panel
@@ -260,6 +272,7 @@ def draw_analysis(
                 "regular",
                 "note",
                 meaning,
+                style.font,
             )
         )
     if caption:
@@ -273,6 +286,7 @@ def draw_analysis(
                 "regular",
                 "title",
                 caption,
+                style.font,
             )
         )
     x0, y0, x1, y1 = whole.box()

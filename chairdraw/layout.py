@@ -63,6 +63,7 @@ class Text:
     weight: str
     role: str  # label, atom, caption, energy, locant, title
     plain: str  # the text as read aloud (aria-label)
+    font: str = ""  # a user's font file(s) (Style.font_file), "" for the shipped font
 
     @cached_property
     def _boxes(self) -> tuple[tuple[float, float, float, float], ...]:
@@ -73,12 +74,12 @@ class Text:
         return self._boxes
 
     def _measure(self):
-        m = fonttext.metrics(self.weight)
+        m = fonttext.metrics(self.weight, self.font)
         x, out = self.x, []
         for run in self.runs:
             size = self.size * (SUB_SCALE if run.kind != NORMAL else 1)
             base = self.y + {NORMAL: 0.0, SUB: SUB_DROP, SUP: -SUP_RISE}[run.kind] * self.size
-            w = fonttext.width(run.text, size, self.weight)
+            w = fonttext.width(run.text, size, self.weight, self.font)
             out.append((x, base - m.cap_height * size, x + w, base))
             x += w
         return out
@@ -210,25 +211,27 @@ def label_runs(label: str, reverse: bool = False) -> tuple[tuple[TextRun, ...], 
     return tuple(runs), (0, 1)
 
 
-def run_widths(runs: tuple[TextRun, ...], size: float, weight: str = "regular") -> list[float]:
-    return [fonttext.width(r.text, size * (SUB_SCALE if r.kind != NORMAL else 1), weight) for r in runs]
+def run_widths(runs: tuple[TextRun, ...], size: float, weight: str = "regular", font: str = "") -> list[float]:
+    return [fonttext.width(r.text, size * (SUB_SCALE if r.kind != NORMAL else 1), weight, font) for r in runs]
 
 
-def char_x(runs: tuple[TextRun, ...], size: float, index: int, weight: str = "regular") -> float:
+def char_x(runs: tuple[TextRun, ...], size: float, index: int, weight: str = "regular", font: str = "") -> float:
     """x offset of character ``index`` of the joined runs from the start of the text."""
     x = 0.0
     for run in runs:
         s = size * (SUB_SCALE if run.kind != NORMAL else 1)
         if index < len(run.text):
-            return x + fonttext.width(run.text[:index], s, weight)
+            return x + fonttext.width(run.text[:index], s, weight, font)
         index -= len(run.text)
-        x += fonttext.width(run.text, s, weight)
+        x += fonttext.width(run.text, s, weight, font)
     return x
 
 
-def centred_text(runs: tuple[TextRun, ...], cx: float, baseline: float, size: float, weight: str, role: str) -> Text:
-    w = sum(run_widths(runs, size, weight))
-    return Text(runs, cx - w / 2, baseline, size, weight, role, "".join(r.text for r in runs))
+def centred_text(
+    runs: tuple[TextRun, ...], cx: float, baseline: float, size: float, weight: str, role: str, font: str = ""
+) -> Text:
+    w = sum(run_widths(runs, size, weight, font))
+    return Text(runs, cx - w / 2, baseline, size, weight, role, "".join(r.text for r in runs), font)
 
 
 def chair_name_runs(name: str) -> tuple[TextRun, ...]:
@@ -240,22 +243,22 @@ def chair_name_runs(name: str) -> tuple[TextRun, ...]:
 
 
 def anchored_label(
-    runs: tuple[TextRun, ...], span: tuple[int, int], centre: Point, size: float, role: str = "label"
+    runs: tuple[TextRun, ...], span: tuple[int, int], centre: Point, size: float, role: str = "label", font: str = ""
 ) -> Text:
     """A label placed so that the middle of its attachment symbol sits at ``centre`` (y down)."""
-    m = fonttext.metrics()
-    x0 = char_x(runs, size, span[0])
-    x1 = char_x(runs, size, span[1])
+    m = fonttext.metrics("regular", font)
+    x0 = char_x(runs, size, span[0], "regular", font)
+    x1 = char_x(runs, size, span[1], "regular", font)
     x = centre[0] - (x0 + x1) / 2
     baseline = centre[1] + m.cap_height * size / 2
-    return Text(runs, x, baseline, size, "regular", role, "".join(r.text for r in runs))
+    return Text(runs, x, baseline, size, "regular", role, "".join(r.text for r in runs), font)
 
 
 def symbol_box(text: Text, span: tuple[int, int], pad: float) -> tuple[float, float, float, float]:
     """Box around the attachment symbol of a placed label, grown by ``pad``."""
-    m = fonttext.metrics(text.weight)
-    x0 = text.x + char_x(text.runs, text.size, span[0], text.weight)
-    x1 = text.x + char_x(text.runs, text.size, span[1], text.weight)
+    m = fonttext.metrics(text.weight, text.font)
+    x0 = text.x + char_x(text.runs, text.size, span[0], text.weight, text.font)
+    x1 = text.x + char_x(text.runs, text.size, span[1], text.weight, text.font)
     return x0 - pad, text.y - m.cap_height * text.size - pad, x1 + pad, text.y + pad
 
 

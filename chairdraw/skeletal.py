@@ -164,7 +164,7 @@ def _draw(heavy: Chem.Mol, at, atoms: list[int], anchors: set[int], boxes: dict,
             runs, span = _atom_runs(atom, h_first=False, hydrogens=False)
         else:
             runs, span = _atom_runs(atom, h_first=right > left)
-        text = anchored_label(runs, span, here, style.font_size)
+        text = anchored_label(runs, span, here, style.font_size, font=style.font)
         texts.append(text)
         x0, y0, x1, y1 = symbol_box(text, span, style.label_gap)
         if atom.GetFormalCharge():  # the charge sits up and right of the symbol: bonds stop short of it too
@@ -240,8 +240,9 @@ def _wedge(a: Point, b: Point, solid: bool, box_a, box_b, style: Style) -> tuple
 def _hydrogens_off_axis(atom: Chem.Atom, here: Point, below: bool, style: Style) -> Text:
     h = atom.GetTotalNumHs()
     runs = (TextRun("H", NORMAL),) + ((TextRun(str(h), SUB),) if h > 1 else ())
-    step = fonttext.metrics().cap_height * style.font_size + 2 * style.label_gap
-    return anchored_label(runs, (0, 1), (here[0], here[1] + (step if below else -step)), style.font_size)
+    step = fonttext.metrics("regular", style.font).cap_height * style.font_size + 2 * style.label_gap
+    centre = (here[0], here[1] + (step if below else -step))
+    return anchored_label(runs, (0, 1), centre, style.font_size, font=style.font)
 
 
 def _atom_runs(

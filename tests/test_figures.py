@@ -671,3 +671,25 @@ def test_protected_sugars_get_their_usual_labels():
 )
 def test_n_protecting_groups_are_written_the_usual_way(smiles, label):
     assert label in {t.plain for t in chairdraw.draw(smiles).texts}
+
+
+def test_a_font_file_of_ones_own(tmp_path):
+    from importlib import resources
+
+    bold = str(resources.files("chairdraw") / "fonts" / "LiberationSans-Bold.ttf")  # any TTF will do
+    plain = chairdraw.draw("C[C@H]1CC[C@@H](O)CC1")
+    own = draw_analysis(chairdraw.analyze("C[C@H]1CC[C@@H](O)CC1"), Style(font_file=bold))
+    assert {t.font for t in own.texts} == {bold + "|"}
+    own_o = next(t for t in own.texts if t.plain == "OH")
+    ref_o = next(t for t in plain.texts if t.plain == "OH")
+    from chairdraw.render import text as fonttext
+
+    assert fonttext.outline("O", 0, 0, 10, "regular", own_o.font) != fonttext.outline(
+        "O", 0, 0, 10, "regular", ref_o.font
+    )
+    assert clashes(list(own.strokes), list(own.texts)) == []
+    assert main(["draw", "CC1CCCCC1", "-o", str(tmp_path / "f.png"), "--font", bold, "--forcefield", "never"]) == 0
+    bad = tmp_path / "not-a-font.ttf"
+    bad.write_text("hello")
+    assert main(["draw", "CC1CCCCC1", "-o", str(tmp_path / "g.svg"), "--font", bad.as_posix()]) == 2
+    assert main(["draw", "CC1CCCCC1", "-o", str(tmp_path / "g.svg"), "--font", str(tmp_path / "none.ttf")]) == 2

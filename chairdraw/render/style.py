@@ -48,6 +48,10 @@ class Style:
     units: str = "kcal"  # kcal | kJ
     numbering: bool = False  # ring locants beside the ring atoms
     chair_scale: float = 0.0  # chairs drawn at this multiple of bond_length; 0: as large as labels need
+    # a TrueType/OpenType file for all text ("" = the shipped Liberation Sans, metric-compatible
+    # with Arial); bold_font_file for the favoured chair's caption ("" = the same file)
+    font_file: str = ""
+    bold_font_file: str = ""
 
     def __post_init__(self):
         for f in fields(self):
@@ -68,6 +72,17 @@ class Style:
             raise FigureError(f"style hydrogens must be one of {', '.join(HYDROGENS)}, not {self.hydrogens!r}")
         if self.units not in ("kcal", "kJ"):
             raise FigureError(f"style units must be kcal or kJ, not {self.units!r}")
+        for name in ("font_file", "bold_font_file"):
+            path = getattr(self, name)
+            if path and not Path(path).is_file():
+                raise FigureError(f"style {name}: no such file {path!r}")
+        if self.bold_font_file and not self.font_file:
+            raise FigureError("style bold_font_file needs font_file (the shipped font has its own bold)")
+
+    @property
+    def font(self) -> str:
+        """The font key of the text module: '' for the shipped font, else 'regular|bold' files."""
+        return f"{self.font_file}|{self.bold_font_file}" if self.font_file else ""
 
     def replace(self, **changes) -> Style:
         known = {f.name for f in fields(self)}

@@ -53,7 +53,7 @@ def to_svg(figure, debug: bool = False) -> str:
         for run in t.runs:
             size = t.size * (SUB_SCALE if run.kind != "normal" else 1)
             y = t.y + _SHIFT[run.kind] * t.size
-            paths, x = fonttext.outline(run.text, x, y, size, t.weight)
+            paths, x = fonttext.outline(run.text, x, y, size, t.weight, t.font)
             for d, transform in paths:
                 group.add(dwg.path(d=d, transform=transform))
         dwg.add(group)

@@ -1,4 +1,5 @@
-"""Text from the shipped font (Liberation Sans, SIL OFL 1.1): widths and glyph outlines.
+"""Text from the shipped font (Liberation Sans, SIL OFL 1.1), or a TrueType/OpenType file the
+user names (Style.font_file): widths and glyph outlines.
 
 Labels are measured and drawn from the same font file, and written into the SVG as outlines, so
 the SVG, PNG and PDF look the same on every machine whatever fonts it has (cairosvg would take
@@ -16,6 +17,8 @@ from importlib import resources
 from fontTools.pens.recordingPen import DecomposingRecordingPen
 from fontTools.ttLib import TTFont
 
+from ..errors import FigureError
+
 FONTS = {"regular": "LiberationSans-Regular.ttf", "bold": "LiberationSans-Bold.ttf"}
 FAMILY = "Liberation Sans"
 
@@ -30,18 +33,29 @@ class FontMetrics:
 
 
 @cache
-def _font(weight: str) -> TTFont:
-    path = resources.files("chairdraw") / "fonts" / FONTS[weight]
-    with resources.as_file(path) as file:
+def _font(weight: str, font: str = "") -> TTFont:
+    """The shipped face for ``weight``, or the file ``font`` (a user's font: 'regular' and
+    'bold' name files joined by '|', the bold one optional)."""
+    if font:
+        files = font.split("|")
+        path = files[1] if weight == "bold" and len(files) > 1 and files[1] else files[0]
+        try:
+            return TTFont(path, lazy=False)
+        except Exception as exc:  # fontTools raises many kinds for a file that is not a font
+            raise FigureError(f"cannot read the font file {path!r}: {exc}") from None
+    packaged = resources.files("chairdraw") / "fonts" / FONTS[weight]
+    with resources.as_file(packaged) as file:
         return TTFont(str(file), lazy=False)
 
 
 @cache
-def metrics(weight: str = "regular") -> FontMetrics:
-    font = _font(weight)
-    em = font["head"].unitsPerEm
-    os2 = font["OS/2"]
-    return FontMetrics(em, font["hhea"].ascent / em, -font["hhea"].descent / em, os2.sCapHeight / em, os2.sxHeight / em)
+def metrics(weight: str = "regular", font: str = "") -> FontMetrics:
+    face = _font(weight, font)
+    em = face["head"].unitsPerEm
+    os2 = face["OS/2"]
+    cap = getattr(os2, "sCapHeight", 0) or 0.7 * em  # old fonts lack the cap height: a usual value
+    x_height = getattr(os2, "sxHeight", 0) or 0.5 * em
+    return FontMetrics(em, face["hhea"].ascent / em, -face["hhea"].descent / em, cap / em, x_height / em)
 
 
 # a glyph outline in em units, y up: (operator, points) with operators M, L, Q, C, Z
@@ -50,9 +64,9 @@ _OPS = {"moveTo": "M", "lineTo": "L", "qCurveTo": "Q", "curveTo": "C", "closePat
 
 
 @cache
-def _glyph(weight: str, char: str) -> tuple[float, Outline]:
+def _glyph(weight: str, char: str, font_file: str = "") -> tuple[float, Outline]:
     """(advance in em, outline in em units) of one character."""
-    font = _font(weight)
+    font = _font(weight, font_file)
     cmap = font.getBestCmap()
     name = cmap.get(ord(char)) or cmap.get(ord("?"), ".notdef")
     glyphs = font.getGlyphSet()
@@ -76,22 +90,24 @@ def _quadratics(recorded):
         yield "qCurveTo", (offs[-1], end)
 
 
-def width(text: str, size: float, weight: str = "regular") -> float:
+def width(text: str, size: float, weight: str = "regular", font: str = "") -> float:
     """Advance width of ``text`` at font size ``size`` (same units as size)."""
-    return sum(_glyph(weight, ch)[0] for ch in text) * size
+    return sum(_glyph(weight, ch, font)[0] for ch in text) * size
 
 
-def has_glyph(char: str, weight: str = "regular") -> bool:
-    return ord(char) in _font(weight).getBestCmap()
+def has_glyph(char: str, weight: str = "regular", font: str = "") -> bool:
+    return ord(char) in _font(weight, font).getBestCmap()
 
 
-def outline(text: str, x: float, y: float, size: float, weight: str = "regular") -> tuple[list[tuple[str, str]], float]:
+def outline(
+    text: str, x: float, y: float, size: float, weight: str = "regular", font: str = ""
+) -> tuple[list[tuple[str, str]], float]:
     """(path data in em units, transform) per glyph for ``text`` with its baseline starting at
     (x, y) on a y-down page, and the x where the text ends. The path data of a glyph is made once;
     the transform scales it, flips it and moves it into place."""
     paths = []
     for ch in text:
-        advance, d = _path(weight, ch)
+        advance, d = _path(weight, ch, font)
         if d:
             paths.append((d, f"matrix({size:.3f} 0 0 {-size:.3f} {x:.2f} {y:.2f})"))
         x += advance * size
@@ -99,7 +115,7 @@ def outline(text: str, x: float, y: float, size: float, weight: str = "regular")
 
 
 @cache
-def _path(weight: str, char: str) -> tuple[float, str]:
-    advance, glyph = _glyph(weight, char)
+def _path(weight: str, char: str, font: str = "") -> tuple[float, str]:
+    advance, glyph = _glyph(weight, char, font)
     d = "".join(op + " ".join(f"{px:.4f} {py:.4f}" for px, py in points) for op, points in glyph if op)
     return advance, d
