@@ -245,18 +245,21 @@ def _number(panel: Panel, ring: RingResult, at: list[Point], bond: float, style:
         u1 = unit_vector((at[k - 1][0] - at[k][0], at[k - 1][1] - at[k][1]))
         u2 = unit_vector((at[(k + 1) % 6][0] - at[k][0], at[(k + 1) % 6][1] - at[k][1]))
         inside = math.degrees(math.atan2(u1[1] + u2[1], u1[0] + u2[0]))
-        placed = False
+        best: tuple[int, Text] | None = None
         for turn in (0, 25, -25, 50, -50, 80, -80, 180):
             for reach in (0.3, 0.42):
                 angle = math.radians(inside + turn)
                 c = (at[k][0] + math.cos(angle) * reach * bond, at[k][1] + math.sin(angle) * reach * bond)
                 text = anchored_label(runs, (0, len(number)), c, size, "locant", style.font)
-                if not clashes(panel.strokes, [text], tolerance=-0.5, others=panel.texts):
-                    panel.texts.append(text)
-                    placed = True
+                touching = len(clashes(panel.strokes, [text], tolerance=-0.5, others=panel.texts))
+                if best is None or touching < best[0]:
+                    best = (touching, text)
+                if not touching:
                     break
-            if placed:
+            if best is not None and best[0] == 0:
                 break
+        assert best is not None
+        panel.texts.append(best[1])  # a locant is never left out: at worst where it touches least
 
 
 def _condensed(mol: Chem.Mol, ring_atom: int, atom: int) -> str | None:

@@ -26,7 +26,7 @@ from .render import text as fonttext
 from .render.style import Style
 
 AZIMUTH_DEG = 15.0  # turns the back and front bonds off the horizontal, so no two atoms share an x
-ELEVATION_DEG = 14.0  # view from above; below about 18 deg every ring atom stays a V (see tests)
+ELEVATION_DEG = 16.0  # view from above; below about 18 deg every ring atom stays a V (see tests)
 _H = 1 / (4 * math.sqrt(2))  # half the ring's thickness for radius 1 and tetrahedral angles
 _BOND_3D = math.sqrt(1 + 4 * _H * _H)  # ring bond length for radius 1
 SUB_SCALE, SUB_DROP, SUP_RISE = 0.7, 0.25, 0.45  # subscript size and shifts, of the font size
