@@ -112,4 +112,5 @@ def without_hs(mol: Chem.Mol) -> tuple[Chem.Mol, dict[int, int]]:
     for atom in tagged.GetAtoms():
         atom.SetIntProp("_chairdraw_index", atom.GetIdx())
     heavy = Chem.RemoveHs(tagged, sanitize=False)
+    heavy.UpdatePropertyCache(strict=False)  # without it an O that lost its H atom counts none
     return heavy, {a.GetIntProp("_chairdraw_index"): a.GetIdx() for a in heavy.GetAtoms()}

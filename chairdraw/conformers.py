@@ -186,7 +186,8 @@ def _merge_position_warnings(warnings: list[str]) -> list[str]:
     if where:
         rest.insert(
             0,
-            "ring-position A-values are tabulated only for methyl in oxanes, 1,3-dioxanes and piperidines, and "
+            "ring-position A-values are tabulated only for methyl in oxanes, 1,3-dioxanes and piperidines, "
+            "5-alkyl groups in 1,3-dioxanes, and "
             "for OH and CH2OH in pyranoses in water; "
             "cyclohexane values are used for " + ", ".join(where),
         )

@@ -20,7 +20,7 @@ NORMAL, SUB, SUP = "normal", "sub", "sup"
 # report labels that a structure drawing writes with the usual abbreviation (common practice)
 DRAWN_AS = {"COMe": "Ac", "cHex": "Cy", "SiMe3": "TMS", "COPh": "Bz", "CH2Ph": "Bn"}
 # on a nitrogen, an alkoxycarbonyl is a carbamate protecting group and is written as one
-ON_NITROGEN = {"CO2tBu": "Boc", "CO2Bn": "Cbz", "CO2Me": "CO2Me"}
+ON_NITROGEN = {"CO2tBu": "Boc", "CO2Bn": "Cbz"}
 _SHOWN = {"#": "\u2261", "-": "\u2212"}  # triple bond, minus sign: what a printed label shows
 
 
@@ -59,11 +59,18 @@ class Label:
     charge: str = ""  # the charge of the whole group (NH3+): written last in either direction
 
     def groups(self) -> list[tuple[Unit, ...]]:
-        """Units as they move when the label is reversed: a bracketed single atom, =O written
-        (O), stays with the atom before it (S(O)Me -> MeS(O), P(O)Ph2 -> Ph2P(O))."""
+        """Units as they move when the label is reversed: a bracketed =O or =S, written (O) or (S),
+        stays with the atom before it (S(O)Me -> MeS(O), P(O)Ph2 -> Ph2P(O)); any other bracket
+        is a group of its own ((Me)2N)."""
         out: list[tuple[Unit, ...]] = []
         for u in self.units:
-            oxo = not isinstance(u.head, str) and len(u.head) == 1 and isinstance(u.head[0].head, str)
+            oxo = (
+                not isinstance(u.head, str)
+                and not u.count
+                and len(u.head) == 1
+                and u.head[0].head in ("O", "S")
+                and not u.head[0].count
+            )
             if out and oxo and out[-1][-1].head != "H":
                 out[-1] = out[-1] + (u,)
             else:

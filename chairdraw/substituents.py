@@ -121,8 +121,10 @@ def _placeholder(fragment: str) -> tables.AValue:
 
 @cache
 def _largest_table_group() -> int:
-    """Heavy atoms of the largest group in the A-value table: a larger substituent cannot be in it."""
-    return max(sum(1 for a in Chem.MolFromSmiles(key).GetAtoms() if a.GetAtomicNum() > 1) for key in _table())
+    """Heavy atoms of the largest group in the A-value table or labels.txt: a larger substituent
+    cannot be named by either (and is matched to its class in place, which is cheaper)."""
+    keys = list(_table()) + list(_drawing_labels())
+    return max(sum(1 for a in Chem.MolFromSmiles(key).GetAtoms() if a.GetAtomicNum() > 1) for key in keys)
 
 
 @cache
@@ -389,7 +391,8 @@ def condensed_label(fragment: str, links: int = 2) -> str | None:
         mol = rest.GetMol()
         prefix += "CH2"
         label = drawing_label(Chem.MolToSmiles(mol))
-        # an alkyl behind CH2 (CH2Et) reads worse than the skeletal chain: not offered
-        if label is not None and label not in ("H", "D", "T", "Me", "Et", "iPr", "tBu"):
+        # an alkyl or benzyl behind CH2 (CH2Et, CH2Bn) reads worse than the skeletal chain, and
+        # CH2Bz is written CH2COPh: not offered
+        if label is not None and label not in ("H", "D", "T", "Me", "Et", "iPr", "tBu", "Bn", "Bz", "Ph"):
             return prefix + label
     return None

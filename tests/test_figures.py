@@ -638,7 +638,7 @@ def test_what_a_label_would_hide_is_drawn(smiles, hidden):
     assert drawn_bonds and len(drawn_bonds) + len(figure.polygons) >= heavy - ring_kept  # every group atom drawn
 
 
-DRAWN_REVERSED = {"S(O)Me": "Me(O)S", "CH2OH": "HOH2C", "Me": "Me"}
+DRAWN_REVERSED = {"S(O)Me": "MeS(O)", "CH2OH": "HOH2C", "Me": "Me"}
 
 
 def test_e_and_z_exocyclic_isomers_differ():
@@ -679,7 +679,9 @@ def test_a_font_file_of_ones_own(tmp_path):
     bold = str(resources.files("chairdraw") / "fonts" / "LiberationSans-Bold.ttf")  # any TTF will do
     plain = chairdraw.draw("C[C@H]1CC[C@@H](O)CC1")
     own = draw_analysis(chairdraw.analyze("C[C@H]1CC[C@@H](O)CC1"), Style(font_file=bold))
-    assert {t.font for t in own.texts} == {bold + "|"}
+    from chairdraw.render.text import font_key
+
+    assert {t.font for t in own.texts} == {font_key(bold)}
     own_o = next(t for t in own.texts if t.plain == "OH")
     ref_o = next(t for t in plain.texts if t.plain == "OH")
     from chairdraw.render import text as fonttext
@@ -693,3 +695,50 @@ def test_a_font_file_of_ones_own(tmp_path):
     bad.write_text("hello")
     assert main(["draw", "CC1CCCCC1", "-o", str(tmp_path / "g.svg"), "--font", bad.as_posix()]) == 2
     assert main(["draw", "CC1CCCCC1", "-o", str(tmp_path / "g.svg"), "--font", str(tmp_path / "none.ttf")]) == 2
+
+
+def _font_without(tmp_path, chars: str) -> str:
+    """A copy of the shipped font with the glyphs of ``chars`` unmapped."""
+    from importlib import resources
+
+    from fontTools.ttLib import TTFont
+
+    face = TTFont(str(resources.files("chairdraw") / "fonts" / "LiberationSans-Regular.ttf"))
+    for table in face["cmap"].tables:
+        for ch in chars:
+            table.cmap.pop(ord(ch), None)
+    path = tmp_path / "partial.ttf"
+    face.save(str(path))
+    return str(path)
+
+
+def test_signs_missing_from_a_font_come_from_the_shipped_one(tmp_path):
+    from chairdraw.render import text as fonttext
+
+    partial = _font_without(tmp_path, "\u2261\u0394")  # no triple bond, no Delta
+    key = fonttext.font_key(partial)
+    assert fonttext.outline("\u0394", 0, 0, 10, "regular", key) == fonttext.outline("\u0394", 0, 0, 10)
+    assert fonttext.outline("?", 0, 0, 10, "regular", key) != fonttext.outline("\u0394", 0, 0, 10, "regular", key)
+    figure = draw_analysis(chairdraw.analyze("C#C[C@H]1CC[C@@H](C)CC1"), Style(font_file=partial))
+    assert figure.svg()  # drawn, with the shipped glyphs for the missing signs
+
+
+def test_broken_font_files_are_clean_errors(tmp_path):
+    from importlib import resources
+
+    good = (resources.files("chairdraw") / "fonts" / "LiberationSans-Regular.ttf").read_bytes()
+    truncated = tmp_path / "truncated.ttf"
+    truncated.write_bytes(good[: len(good) // 3])
+    for path in (truncated,):
+        assert (
+            main(["draw", "CC1CCCCC1", "-o", str(tmp_path / "x.svg"), "--font", str(path), "--forcefield", "never"])
+            == 2
+        )
+
+
+def test_explicit_h_atoms_keep_heteroatom_hydrogens_in_drawn_groups():
+    # SMILES with H atoms written out: the flat panel and a skeletal group still say NH2 and OH
+    figure = chairdraw.draw("[H]N([H])C(=O)[C@@H]1CC[C@H](C[C@@H](C)O[H])CC1", show_flat=True)
+    texts = [t.plain for t in figure.texts]
+    assert any(t in ("NH2", "H2N") for t in texts) and "N" not in texts
+    assert sum(t in ("OH", "HO") for t in texts) == 3  # the side chain in both chairs and the flat panel

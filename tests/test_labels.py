@@ -97,3 +97,59 @@ def test_every_drawing_label_reads_and_names_a_real_group():
         mol = Chem.MolFromSmiles(group)
         assert mol is not None and sum(1 for a in mol.GetAtoms() if a.GetAtomicNum() == 0) == 1, group
         assert recognise(Chem.MolToSmiles(mol)).estimated_as is not None, f"{label} has an A-value row already"
+
+
+def test_other_brackets_are_groups_of_their_own():
+    assert parse_label("N(Me)2").reversed_text() == "(Me)2N"
+    assert parse_label("CH2N(Me)2").reversed_text() == "(Me)2NH2C"
+    assert parse_label("Si(Me)3").reversed_text() == "(Me)3Si"
+
+
+# formulas of the abbreviations (common practice), to check labels.txt against its SMILES
+_ABBREVIATION_ATOMS = {
+    "Me": "CH3", "Et": "C2H5", "tBu": "C4H9", "Ph": "C6H5", "Bn": "C7H7", "Ac": "C2H3O",
+    "Bz": "C7H5O", "Boc": "C5H9O2", "Cbz": "C8H7O2", "Ts": "C7H7O2S", "Tf": "CF3O2S",
+    "Piv": "C5H9O", "PMB": "C8H9O", "MOM": "C2H5O", "TES": "C6H15Si", "Tr": "C19H15", "Phth": "C8H4O2",
+}  # fmt: skip
+
+
+def _atoms(formula: str) -> dict[str, int]:
+    import re
+
+    out: dict[str, int] = {}
+    for element, count in re.findall(r"([A-Z][a-z]?)(\d*)", formula):
+        out[element] = out.get(element, 0) + int(count or 1)
+    return out
+
+
+def _label_atoms(label) -> dict[str, int]:
+    out: dict[str, int] = {}
+
+    def add(unit, times):
+        heads = [unit.head] if isinstance(unit.head, str) else None
+        n = times * int(unit.count or 1)
+        if heads is None:
+            for inner in unit.head:
+                add(inner, n)
+            return
+        for element, count in _atoms(_ABBREVIATION_ATOMS.get(unit.head, unit.head)).items():
+            out[element] = out.get(element, 0) + count * n
+
+    for unit in label.units:
+        add(unit, 1)
+    return out
+
+
+def test_drawing_labels_have_the_formula_of_their_groups():
+    """Each labels.txt label, expanded with the abbreviations' formulas, has the same atoms as its
+    SMILES: a label naming the wrong group fails here."""
+    from rdkit import Chem
+    from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+
+    from chairdraw.energy import tables
+
+    for label, group in tables.drawing_labels():
+        mol = Chem.MolFromSmiles(group.replace("*", "[H]", 1))  # the ring atom as H: formula of the group + H
+        want = _atoms(CalcMolFormula(mol))
+        want["H"] -= 1
+        assert _label_atoms(parse_label(label)) == {k: v for k, v in want.items() if v}, label

@@ -14,6 +14,7 @@ from dataclasses import dataclass, fields
 from pathlib import Path
 
 from ..errors import FigureError
+from .text import font_key
 
 HYDROGENS = ("none", "stereo", "all")
 # upper bounds of the sizes (pt, or a multiple for chair_scale): beyond them a figure is no longer
@@ -49,7 +50,8 @@ class Style:
     numbering: bool = False  # ring locants beside the ring atoms
     chair_scale: float = 0.0  # chairs drawn at this multiple of bond_length; 0: as large as labels need
     # a TrueType/OpenType file for all text ("" = the shipped Liberation Sans, metric-compatible
-    # with Arial); bold_font_file for the favoured chair's caption ("" = the same file)
+    # with Arial), and one for bold text, the favoured chair's caption ("" = font_file, or the
+    # shipped bold without one); signs a font lacks (≡, Δ, •) come from the shipped font
     font_file: str = ""
     bold_font_file: str = ""
 
@@ -76,13 +78,11 @@ class Style:
             path = getattr(self, name)
             if path and not Path(path).is_file():
                 raise FigureError(f"style {name}: no such file {path!r}")
-        if self.bold_font_file and not self.font_file:
-            raise FigureError("style bold_font_file needs font_file (the shipped font has its own bold)")
 
     @property
     def font(self) -> str:
-        """The font key of the text module: '' for the shipped font, else 'regular|bold' files."""
-        return f"{self.font_file}|{self.bold_font_file}" if self.font_file else ""
+        """The font key of the text module ('' for the shipped font)."""
+        return font_key(self.font_file, self.bold_font_file)
 
     def replace(self, **changes) -> Style:
         known = {f.name for f in fields(self)}
@@ -104,4 +104,8 @@ def load_style(path: str | Path, base: Style | None = None) -> Style:
     data = data.get("style", data)  # a [style] table, or the settings at top level
     if not isinstance(data, dict):
         raise FigureError(f"style file {str(path)!r}: 'style' must be a table of settings ([style])")
+    for name in ("font_file", "bold_font_file"):  # a font named in the file is found beside the file
+        value = data.get(name)
+        if isinstance(value, str) and value and not Path(value).is_absolute():
+            data[name] = str(Path(path).parent / value)
     return (base or Style()).replace(**data)

@@ -32,17 +32,30 @@ class FontMetrics:
     x_height: float
 
 
+SEPARATOR = "\0"  # between the regular and the bold file of a user's font key (no path holds it)
+
+
+def font_key(regular: str = "", bold: str = "") -> str:
+    """The key of a user's font: '' for the shipped font; either file may be '' (shipped face)."""
+    return f"{regular}{SEPARATOR}{bold}" if (regular or bold) else ""
+
+
 @cache
 def _font(weight: str, font: str = "") -> TTFont:
-    """The shipped face for ``weight``, or the file ``font`` (a user's font: 'regular' and
-    'bold' name files joined by '|', the bold one optional)."""
+    """The face for ``weight``: the shipped one, or a user's file from the key ``font``."""
     if font:
-        files = font.split("|")
-        path = files[1] if weight == "bold" and len(files) > 1 and files[1] else files[0]
-        try:
-            return TTFont(path, lazy=False)
-        except Exception as exc:  # fontTools raises many kinds for a file that is not a font
-            raise FigureError(f"cannot read the font file {path!r}: {exc}") from None
+        regular, _, bold = font.partition(SEPARATOR)
+        path = bold if weight == "bold" and bold else regular
+        if path:
+            try:
+                face = TTFont(path, lazy=False)
+                for table in ("head", "hhea", "hmtx"):
+                    face[table]  # noqa: B018  (read now: a broken table fails here, not mid-drawing)
+                face.getBestCmap()
+                face.getGlyphSet()
+                return face
+            except Exception as exc:  # fontTools raises many kinds for a file that is not a usable font
+                raise FigureError(f"cannot read the font file {path!r}: {str(exc)[:120]}") from None
     packaged = resources.files("chairdraw") / "fonts" / FONTS[weight]
     with resources.as_file(packaged) as file:
         return TTFont(str(file), lazy=False)
@@ -52,7 +65,7 @@ def _font(weight: str, font: str = "") -> TTFont:
 def metrics(weight: str = "regular", font: str = "") -> FontMetrics:
     face = _font(weight, font)
     em = face["head"].unitsPerEm
-    os2 = face["OS/2"]
+    os2 = face["OS/2"] if "OS/2" in face else None
     cap = getattr(os2, "sCapHeight", 0) or 0.7 * em  # old fonts lack the cap height: a usual value
     x_height = getattr(os2, "sxHeight", 0) or 0.5 * em
     return FontMetrics(em, face["hhea"].ascent / em, -face["hhea"].descent / em, cap / em, x_height / em)
@@ -68,6 +81,8 @@ def _glyph(weight: str, char: str, font_file: str = "") -> tuple[float, Outline]
     """(advance in em, outline in em units) of one character."""
     font = _font(weight, font_file)
     cmap = font.getBestCmap()
+    if font_file and ord(char) not in cmap:
+        return _glyph(weight, char)  # a sign the user's font lacks (≡, Δ, •): the shipped font's
     name = cmap.get(ord(char)) or cmap.get(ord("?"), ".notdef")
     glyphs = font.getGlyphSet()
     em = font["head"].unitsPerEm
@@ -78,8 +93,17 @@ def _glyph(weight: str, char: str, font_file: str = "") -> tuple[float, Outline]
 
 
 def _quadratics(recorded):
-    """Split TrueType qCurveTo runs (implied on-curve points) into single quadratic segments."""
+    """Split TrueType qCurveTo runs (implied on-curve points) into single quadratic segments. A
+    contour of off-curve points only (its last point None) starts between its last and first."""
     for op, points in recorded:
+        if op == "qCurveTo" and points and points[-1] is None:
+            offs = list(points[:-1])
+            start = ((offs[-1][0] + offs[0][0]) / 2, (offs[-1][1] + offs[0][1]) / 2)
+            yield "moveTo", (start,)
+            for k, off in enumerate(offs):
+                nxt = offs[(k + 1) % len(offs)]
+                yield "qCurveTo", (off, ((off[0] + nxt[0]) / 2, (off[1] + nxt[1]) / 2))
+            continue
         if op != "qCurveTo" or len(points) <= 2:
             yield op, points
             continue
