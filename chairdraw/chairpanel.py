@@ -42,7 +42,7 @@ from .substituents import condensed_label, fragments, substituent_groups
 
 # chairs are drawn larger, in these steps, until no label touches a bond or another label
 CHAIR_SCALES = (1.0, 1.12, 1.25, 1.4, 1.6, 1.8, 2.0, 2.3, 2.6)
-LENGTHS = (1.0, 0.85, 1.2, 0.7, 1.4)  # of the bond length, tried in turn where a label touches
+LENGTHS = (1.0, 0.85, 1.2, 0.7, 1.4, 1.65)  # of the bond length, tried in turn where a label touches
 LABEL_CLEARANCE = 2.0  # pt kept free around a group's label when placing it (the final check allows 0)
 H_CLEARANCE = 0.6  # pt around an H: it is small, and it is left out where it does not fit
 MAX_LABEL = 8  # characters; a longer condensed label is drawn as a skeletal fragment
