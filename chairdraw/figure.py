@@ -13,7 +13,7 @@ from dataclasses import dataclass, field
 
 from .chairpanel import Panel, chair_panel, needed_scale, shown_chairs
 from .errors import FigureError
-from .labels import NORMAL
+from .labels import DRAWN_AS, NORMAL
 from .layout import Polygon, Stroke, Text, TextRun, centred_text, chair_name_runs, with_gaps
 from .render import text as fonttext
 from .render.style import Style
@@ -70,8 +70,15 @@ def _energy_text(delta_kcal: float, style: Style, kelvin: float | None = None) -
     return f"\u0394G{at} = {delta_kcal:.1f} kcal/mol"
 
 
-def _caption(chair: Chair, style: Style, bold: bool, cx: float, baseline: float) -> Text:
-    runs = chair_name_runs(chair.name) + (TextRun(f"  {percent(chair.population)}%", NORMAL),)
+def _caption(chair: Chair, kind: str, style: Style, bold: bool, cx: float, baseline: float) -> Text:
+    """The chair's name where the trade has one (4C1 for a pyranose), else its axial groups; its
+    population; 'favoured' on the favoured chair."""
+    if kind == "pyranose":
+        name = chair_name_runs(chair.name)
+    else:
+        axial = [DRAWN_AS.get(p.label, p.label) for p in chair.axial()]
+        name = (TextRun(f"{', '.join(axial)} axial" if axial else "all equatorial", NORMAL),)
+    runs = name + (TextRun(f"  {percent(chair.population)}%", NORMAL),)
     if bold:
         runs += (TextRun("  favoured", NORMAL),)
     return centred_text(runs, cx, baseline, style.caption_size, "bold" if bold else "regular", "caption", style.font)
@@ -142,7 +149,7 @@ def ring_row(
         bottom = max(bottom, text.extent()[3])  # captions go below the energy, never beside it
     baseline = bottom + 1.6 * style.caption_size
     for i, _, left, right in built:
-        row.texts.append(_caption(ring.chairs[i], style, i == favoured, (left + right) / 2, baseline))
+        row.texts.append(_caption(ring.chairs[i], ring.kind, style, i == favoured, (left + right) / 2, baseline))
     for note in caveats(ring):
         baseline += 1.4 * style.caption_size
         line = f"Note: {note}; the figure shows the chair model"
@@ -328,7 +335,7 @@ def _description(analysis: Analysis, results: list[RingResult], style: Style) ->
     lines = []
     for r in results:
         fav = r.favored
-        parts = [f"{r.kind}: chairs {r.chairs[0].name} and {r.chairs[1].name}"]
+        parts = [f"{r.kind}: chairs {r.chairs[0].name} and {r.chairs[1].name} (as in the report)"]
         parts.append(_energy_text(r.delta_g_kcal_mol, style))
         parts.append("degenerate" if fav is None else f"{fav.name} favoured ({100 * fav.population:.1f}%)")
         lines.append(", ".join(parts))

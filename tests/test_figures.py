@@ -482,7 +482,8 @@ def test_a_group_without_a_condensed_label_is_drawn_skeletal_with_its_stereo():
     assert any(p.estimated for p in analysis.rings[0].chairs[0].positions)
     figure = draw_analysis(analysis)
     plain = [t.plain for t in figure.texts]
-    assert not any("C2H5O" in t or "OH5C2" in t for t in plain)  # no formula label
+    labels = [t.plain for t in figure.texts if t.role == "label"]
+    assert not any("C2H5O" in t or "OH5C2" in t for t in labels)  # drawn, not written as a formula
     assert plain.count("OH") + plain.count("HO") == 2  # the group's O, once per chair
     marks = [p for p in figure.polygons if p.role == "wedge"] + [s for s in figure.strokes if s.role == "hash"]
     assert marks  # its stereocentre keeps a wedge or hash
