@@ -57,6 +57,8 @@ class Panel:
     # where the drawing puts each atom (ring atoms, and the first atom of each drawn group, keyed
     # (ring atom, group atom or None for H)): what a chair molfile or a 3D rebuild reads
     atoms: dict = field(default_factory=dict)
+    # what each position is drawn as, keyed like ``atoms``: its label, or None for a skeletal group
+    shown_as: dict = field(default_factory=dict)
 
     def box(self) -> tuple[float, float, float, float]:
         xs, ys = [], []
@@ -80,6 +82,7 @@ class Panel:
             [Stroke(mv(s.start), mv(s.end), s.width, s.role, s.depth) for s in self.strokes],
             [dataclasses.replace(t, x=t.x + dx, y=t.y + dy) for t in self.texts],
             [Polygon(tuple(mv(q) for q in p.points), p.role) for p in self.polygons],
+            shown_as=dict(self.shown_as),
         )
 
     def add(self, other: Panel) -> None:
@@ -183,8 +186,10 @@ def _chair_at(analysis: Analysis, ring: RingResult, chair: Chair, style: Style, 
             condensed = _condensed(mol, p.ring_atom, p.atom)
             if condensed is None:
                 skeletal.append((p.ring_atom, p.atom, panel.atoms[(p.ring_atom, p.atom)]))
+                panel.shown_as[(p.ring_atom, p.atom)] = None
                 continue
             label, formula = condensed, False
+        panel.shown_as[(p.ring_atom, p.atom)] = DRAWN_AS.get(label, label)
         labelled.append((at[k], direction, length, label, ring_boxes.get(k), eq_depth, False, formula))
     drawn = {(p.ring_atom, p.atom) for p in chair.positions}
     for atom_idx in ring.trigonal_atoms:

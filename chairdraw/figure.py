@@ -14,7 +14,7 @@ from dataclasses import dataclass, field
 from .chairpanel import Panel, chair_panel, needed_scale, shown_chairs
 from .errors import FigureError
 from .labels import DRAWN_AS, NORMAL
-from .layout import Polygon, Stroke, Text, TextRun, centred_text, chair_name_runs, with_gaps
+from .layout import Polygon, Stroke, Text, TextRun, centred_text, chair_name_runs, label_runs, with_gaps
 from .render import text as fonttext
 from .render.style import Style
 from .report import caveats, percent
@@ -70,14 +70,21 @@ def _energy_text(delta_kcal: float, style: Style, kelvin: float | None = None) -
     return f"\u0394G{at} = {delta_kcal:.1f} kcal/mol"
 
 
-def _caption(chair: Chair, kind: str, style: Style, bold: bool, cx: float, baseline: float) -> Text:
-    """The chair's name where the trade has one (4C1 for a pyranose), else its axial groups; its
-    population; 'favoured' on the favoured chair."""
-    if kind == "pyranose":
+def _caption(
+    chair: Chair, ring: RingResult, shown_as: dict, style: Style, bold: bool, cx: float, baseline: float
+) -> Text:
+    """The chair's name where the trade has one (4C1 for a pyranose), else its axial groups by
+    position, written as the chair draws them (2-Me, 4-CO2Me; a skeletal group as '4-group');
+    its population; 'favoured' on the favoured chair."""
+    if ring.kind == "pyranose":
         name = chair_name_runs(chair.name)
     else:
-        axial = [DRAWN_AS.get(p.label, p.label) for p in chair.axial()]
-        name = (TextRun(f"{', '.join(axial)} axial" if axial else "all equatorial", NORMAL),)
+        parts: list[TextRun] = []
+        for p in chair.axial():
+            shown = shown_as.get((p.ring_atom, p.atom), DRAWN_AS.get(p.label, p.label))
+            runs = label_runs(shown)[0] if shown else (TextRun("group", NORMAL),)
+            parts += ([TextRun(", ", NORMAL)] if parts else []) + [TextRun(f"{p.locant}-", NORMAL), *runs]
+        name = tuple(parts) + (TextRun(" axial", NORMAL),) if parts else (TextRun("all equatorial", NORMAL),)
     runs = name + (TextRun(f"  {percent(chair.population)}%", NORMAL),)
     if bold:
         runs += (TextRun("  favoured", NORMAL),)
@@ -148,8 +155,10 @@ def ring_row(
         row.texts.append(text)
         bottom = max(bottom, text.extent()[3])  # captions go below the energy, never beside it
     baseline = bottom + 1.6 * style.caption_size
-    for i, _, left, right in built:
-        row.texts.append(_caption(ring.chairs[i], ring.kind, style, i == favoured, (left + right) / 2, baseline))
+    for i, drawn, left, right in built:
+        row.texts.append(
+            _caption(ring.chairs[i], ring, drawn.shown_as, style, i == favoured, (left + right) / 2, baseline)
+        )
     for note in caveats(ring):
         baseline += 1.4 * style.caption_size
         line = f"Note: {note}; the figure shows the chair model"

@@ -743,3 +743,19 @@ def test_explicit_h_atoms_keep_heteroatom_hydrogens_in_drawn_groups():
     texts = [t.plain for t in figure.texts]
     assert any(t in ("NH2", "H2N") for t in texts) and "N" not in texts
     assert sum(t in ("OH", "HO") for t in texts) == 3  # the side chain in both chairs and the flat panel
+
+
+@pytest.mark.parametrize(
+    "smiles,captions",
+    [
+        ("C[C@H]1CC[C@@H](O)CC1", {"4-Me axial", "1-OH axial"}),
+        ("CC(=O)OC[C@H]1CC[C@@H](O)CC1", {"4-CH2OAc axial", "1-OH axial"}),  # as the chair writes it
+        ("C#C[C@H]1CC[C@@H](C)CC1", {"1-C\u2261CH axial", "4-Me axial"}),
+        ("CC[C@H](C)[C@H]1CC[C@@H](C)CC1", {"1-group axial", "4-Me axial"}),  # drawn skeletal
+        ("C[C@H]1CC[C@H](C)CC1", {"all equatorial", "1-Me, 4-Me axial"}),  # trans-1,4
+    ],
+)
+def test_captions_name_the_axial_groups_as_drawn(smiles, captions):
+    figure = chairdraw.draw(smiles)
+    got = {t.plain.split("  ")[0] for t in figure.texts if t.role == "caption"}
+    assert got == captions

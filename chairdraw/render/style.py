@@ -50,8 +50,8 @@ class Style:
     numbering: bool = False  # ring locants beside the ring atoms
     chair_scale: float = 0.0  # chairs drawn at this multiple of bond_length; 0: as large as labels need
     # a TrueType/OpenType file for all text ("" = the shipped Liberation Sans, metric-compatible
-    # with Arial), and one for bold text, the favoured chair's caption ("" = font_file, or the
-    # shipped bold without one); signs a font lacks (≡, Δ, •) come from the shipped font
+    # with Arial), and one for bold text, the favoured chair's caption ("" = the shipped bold);
+    # signs a font lacks (≡, Δ, •) come from the shipped font
     font_file: str = ""
     bold_font_file: str = ""
 

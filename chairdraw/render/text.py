@@ -45,13 +45,17 @@ def _font(weight: str, font: str = "") -> TTFont:
     """The face for ``weight``: the shipped one, or a user's file from the key ``font``."""
     if font:
         regular, _, bold = font.partition(SEPARATOR)
-        path = bold if weight == "bold" and bold else regular
+        # bold text without a bold file of the user's: the shipped bold, so bold stays bold
+        path = bold if weight == "bold" else regular
         if path:
             try:
                 face = TTFont(path, lazy=False)
                 for table in ("head", "hhea", "hmtx"):
                     face[table]  # noqa: B018  (read now: a broken table fails here, not mid-drawing)
-                face.getBestCmap()
+                if not face.getBestCmap():
+                    raise ValueError("it has no Unicode character map")
+                if face["head"].unitsPerEm <= 0:
+                    raise ValueError("its units per em are not positive")
                 face.getGlyphSet()
                 return face
             except Exception as exc:  # fontTools raises many kinds for a file that is not a usable font
@@ -87,7 +91,10 @@ def _glyph(weight: str, char: str, font_file: str = "") -> tuple[float, Outline]
     glyphs = font.getGlyphSet()
     em = font["head"].unitsPerEm
     pen = DecomposingRecordingPen(glyphs)  # composite glyphs (accented, some symbols) as plain outlines
-    glyphs[name].draw(pen)
+    try:
+        glyphs[name].draw(pen)  # CFF outlines are decoded only here: a broken one fails here
+    except Exception as exc:  # noqa: BLE001 (fontTools raises many kinds)
+        raise FigureError(f"cannot draw {char!r} from the font file: {str(exc)[:120]}") from None
     outline = tuple((_OPS[op], tuple((px / em, py / em) for px, py in points)) for op, points in _quadratics(pen.value))
     return font["hmtx"][name][0] / em, outline
 
