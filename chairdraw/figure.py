@@ -277,34 +277,21 @@ def draw_analysis(
         whole = whole.moved(fx1 - fx0 + FLAT_GAP - wx0, 0.0)
         whole.add(flat.moved(-fx0, (wy0 + wy1) / 2 - (fy0 + fy1) / 2))
     meaning = STEREO_NOTES.get(analysis.stereo_meaning)
-    if meaning:
-        _, _, _, y1 = whole.box()
-        whole.texts.append(
-            Text(
-                (TextRun(meaning, NORMAL),),
-                0.0,
-                y1 + 1.6 * style.caption_size,
-                style.caption_size,
-                "regular",
-                "note",
-                meaning,
-                style.font,
+    for line, role in ((meaning, "note"), (caption, "title")):
+        if line:
+            _, _, _, y1 = whole.box()
+            whole.texts.append(
+                Text(
+                    (TextRun(line, NORMAL),),
+                    0.0,
+                    y1 + 1.6 * style.caption_size,
+                    style.caption_size,
+                    "regular",
+                    role,
+                    line,
+                    style.font,
+                )
             )
-        )
-    if caption:
-        _, _, _, y1 = whole.box()
-        whole.texts.append(
-            Text(
-                (TextRun(caption, NORMAL),),
-                0.0,
-                y1 + 1.6 * style.caption_size,
-                style.caption_size,
-                "regular",
-                "title",
-                caption,
-                style.font,
-            )
-        )
     x0, y0, x1, y1 = whole.box()
     m = style.margin
     whole = whole.moved(m - x0, m - y0)
