@@ -27,6 +27,7 @@ from .figure import Figure, draw
 from .read import Structure, read
 from .render.style import Style, load_style
 from .results import Analysis, Chair, Position, RingResult
+from .verify import Checker, CheckResult, check
 
 __version__ = "0.1.0"
 
@@ -34,6 +35,8 @@ __all__ = [
     "Analysis",
     "Analyzer",
     "Chair",
+    "CheckResult",
+    "Checker",
     "ChairdrawError",
     "DataFileError",
     "EnergyError",
@@ -50,6 +53,7 @@ __all__ = [
     "Structure",
     "UsageError",
     "analyze",
+    "check",
     "draw",
     "load_style",
     "read",

@@ -21,7 +21,8 @@ from .figure import draw_analysis
 from .read import FORMATS, read, read_text
 from .render.export import check_dpi, output_type
 from .render.style import CHAIRS, HYDROGENS, Style, load_style
-from .report import DISCLAIMER, format_analysis, summary_line
+from .report import DISCLAIMER, format_analysis, format_check, summary_line
+from .verify import CAVEAT, Checker
 
 OK, MISMATCH, BAD_INPUT = 0, 1, 2
 
@@ -88,6 +89,16 @@ def _parser() -> argparse.ArgumentParser:
     figure_options(w)
     energy_options(w)
 
+    c = sub.add_parser("check", help="does a chair drawing show the registered stereoisomer?")
+    c.add_argument("drawing", help="the chair drawing: a molfile or SDF path (first record), or - for standard input")
+    c.add_argument(
+        "--against",
+        required=True,
+        metavar="REGISTERED",
+        help="the registered structure: SMILES, CXSMILES, InChI, or a molfile/SDF path",
+    )
+    energy_options(c)
+
     d = sub.add_parser("demo", help="analyse the built-in demo set")
     d.add_argument("--full", action="store_true", help="full report for every record, not one line each")
     d.add_argument("--out", metavar="DIR", help="also write each record's figure (SVG and PNG) into DIR")
@@ -117,6 +128,8 @@ def main(argv: Sequence[str] | None = None) -> int:
             return _analyze(args, analyzer)
         if args.command == "draw":
             return _draw(args, analyzer)
+        if args.command == "check":
+            return _check(args, analyzer)
         return _demo(args, analyzer)
     except ChairdrawError as exc:
         print(f"chairdraw: {exc}", file=sys.stderr)
@@ -183,6 +196,25 @@ def _analyze(args, analyzer: Analyzer) -> int:
         print()
         print(DISCLAIMER)
     return OK
+
+
+def _check(args, analyzer: Analyzer) -> int:
+    try:
+        drawing = read_text(sys.stdin.read(), source="stdin") if args.drawing == "-" else read(args.drawing)
+    except ChairdrawError as exc:
+        raise exc.with_record(_quoted(args.drawing)) from None
+    try:
+        registered = read(args.against)
+    except ChairdrawError as exc:
+        raise exc.with_record(_quoted(args.against)) from None
+    result = Checker(analyzer).check(drawing, registered)
+    if args.json:
+        print(json.dumps(result.to_dict(), indent=2, ensure_ascii=False))
+    else:
+        print(format_check(result))
+        print()
+        print(CAVEAT)
+    return OK if result.ok else MISMATCH
 
 
 def _demo(args, analyzer: Analyzer) -> int:

@@ -145,3 +145,30 @@ def summary_line(analysis: Analysis, units: str = "kcal") -> str:
             text += f" ({len(ring.warnings)} warning{'s' if len(ring.warnings) > 1 else ''}: see --full)"
         parts.append(text)
     return f"{title}: " + "; ".join(parts)
+
+
+def format_check(result) -> str:
+    """A check's verdict for a person: the verdict and why, the differing centres, the chair drawn
+    and the drawing-quality warnings (atoms numbered from 1, as in the files)."""
+    title = result.record or "drawing"
+    lines = [f"{title}: {result.verdict} ({result.reason})"]
+    for c in result.differing_centers:
+        lines.append(
+            f"  differs at registered atom {c.registered_atom} ({c.element}, {c.registered_cip or 'no CIP label'})"
+            f" = drawn atom {c.drawn_atom} ({c.drawn_cip or 'no CIP label'})"
+        )
+    lines.append(f"  registered stereo: {result.registered_stereo}")
+    if result.perception is not None:
+        for ring in result.perception.rings:
+            atoms = ", ".join(str(a + 1) for a in ring.atoms)
+            what = ring.drawn_as if not ring.reason else f"{ring.drawn_as}: {ring.reason}"
+            lines.append(f"  ring of atoms {atoms}: drawn {what}")
+    if result.drawn_chair_favored is not None:
+        lines.append(
+            "  the chair drawn is the favoured one"
+            if result.drawn_chair_favored
+            else "  the chair drawn is NOT the favoured one (not wrong; a caption calling it favoured would be)"
+        )
+    for warning in result.warnings:
+        lines.append(f"  warning: {warning}")
+    return "\n".join(lines)

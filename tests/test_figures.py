@@ -15,11 +15,11 @@ import xml.etree.ElementTree as ET
 
 import pytest
 from hypothesis import HealthCheck, given, settings
-from hypothesis import strategies as st
 from PIL import Image
 from rdkit import Chem
 from rdkit.Chem import rdDepictor
 from rdkit.Geometry import Point3D
+from strategies import substituted_rings
 
 import chairdraw
 from chairdraw.cli import main
@@ -64,23 +64,6 @@ def test_the_atom_numbered_1_sits_on_the_right_tip():
 
 
 # --- stereo read back from the drawing ------------------------------------------------------------
-
-GROUPS = [
-    "C",
-    "O",
-    "Cl",
-    "F",
-    "OC",
-    "C(=O)OC",
-    "CC",
-    "N",
-    "C(C)(C)C",
-    "C(F)(F)F",
-    "CCC",  # skeletal (no label of its own)
-    "COC(C)=O",  # CH2OAc (condensed)
-    "NC(C)=O",  # NHAc (labels.txt)
-    "OCc1ccccc1",  # OBn (labels.txt)
-]
 
 
 def _lift(analysis, ring, chair) -> Chem.Mol:
@@ -158,30 +141,6 @@ def _pucker(points, ups, eps) -> float:
         return max(lengths) - min(lengths)
 
     return min((spread(h / 20), h / 20) for h in range(1, 400))[1]
-
-
-@st.composite
-def substituted_rings(draw):
-    ring_o = draw(st.booleans())
-    atoms = ["C"] * 6
-    if ring_o:
-        atoms[0] = "O"
-    smiles_atoms = []
-    for k in range(6):
-        if atoms[k] == "O":
-            smiles_atoms.append("O")
-            continue
-        group = draw(st.sampled_from([None, None] + GROUPS))
-        if group is None:
-            smiles_atoms.append("C")
-        else:
-            tag = draw(st.sampled_from(["@", "@@"]))
-            smiles_atoms.append(f"[C{tag}H]({group})")
-    text = smiles_atoms[0] + "1" + "".join(smiles_atoms[1:5]) + smiles_atoms[5] + "1"
-    mol = Chem.MolFromSmiles(text)
-    if mol is None:
-        return None
-    return Chem.MolToSmiles(mol)
 
 
 @settings(max_examples=2000, deadline=None, suppress_health_check=[HealthCheck.filter_too_much])

@@ -1,0 +1,339 @@
+"""A chair drawn in 2D -> the faces of its substituents, and from them chiral tags.
+
+A molfile drawing of a chair carries its stereo in the picture, not in wedges: which way each ring
+atom's V points, and which bonds are axial (parallel to the chair's axis) or equatorial (parallel
+to the ring bonds one step away). Reading it, the way a chemist does:
+
+* the axis: the three alternate ring atoms of one set sit above those of the other set by the
+  pucker, so the difference of the two sets' centroids is the axis as drawn; it is taken to point
+  up the page (a drawing may be turned in the plane, by up to about 30 degrees);
+* each ring atom is a V pointing up or down along the axis; each bond leaving the ring is axial
+  or equatorial by its angle to the axis and to its reference ring bonds, with a tolerance; an
+  axial bond lies on the face its V points to, an equatorial one on the other face;
+* the viewer looks from a little above (the usual way a chair is drawn), so the ring order read
+  round the drawing is the order seen from the upper face; that fixes which face is "top" in the
+  ring numbering of ``faces.py``, and ``faces.set_faces`` turns the faces into chiral tags.
+
+Anything the picture does not settle (a bond between axial and equatorial, an atom with two axial
+bonds, a V that does not alternate) is reported with the atom's number and left undetermined: no
+guess. Atom numbers in messages count from 1, as in a molfile.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+from rdkit import Chem
+
+from .errors import StereoError
+from .faces import BOTTOM, TOP, forget_stereo_perception, ring_slots, set_faces
+from .rings import ChairRing, find_rings
+
+AXIAL, EQUATORIAL, UNDETERMINED = "axial", "equatorial", "undetermined"
+TOLERANCE = 25.0  # degrees: a bond this close to the axis or to its equatorial reference reads as such
+MARGIN = 15.0  # degrees: ... and it must be this much closer to one than to the other
+QUALITY = 12.0  # degrees: beyond this a reading is still made, with a drawing-quality warning
+PARALLEL = 20.0  # degrees: opposite ring bonds of a chair drawing are parallel within this
+MAX_TILT = 45.0  # degrees: a chair turned further than this in the plane has no clear "up"
+MIN_PUCKER = 0.12  # pucker drawn, in mean ring-bond lengths: below it the ring is drawn flat
+MIN_AREA = 0.05  # signed ring area in squared bond lengths: below it the ring is seen edge-on
+
+
+@dataclass(frozen=True)
+class BondReading:
+    """One bond leaving a chair ring, read from the drawing."""
+
+    ring_atom: int  # atom indices from 0 (RDKit's); messages use number = index + 1
+    atom: int
+    position: str  # axial, equatorial or undetermined
+    side: str | None  # 'up' or 'down' on the page (the face it is drawn on), None if undetermined
+    off_axis: float  # degrees between the bond and the chair axis
+    off_equatorial: float  # degrees between the bond and its equatorial reference
+    confidence: float  # 0..1: how clearly the angles separate the two readings
+
+    def to_dict(self) -> dict:
+        return {
+            "ring_atom_number": self.ring_atom + 1,
+            "atom_number": self.atom + 1,
+            "position": self.position,
+            "side": self.side,
+            "off_axis_deg": round(self.off_axis, 1),
+            "off_equatorial_deg": round(self.off_equatorial, 1),
+            "confidence": round(self.confidence, 2),
+        }
+
+
+@dataclass(frozen=True)
+class RingReading:
+    """One six-membered ring of the drawing: how it is drawn and what it shows."""
+
+    atoms: tuple[int, ...]  # in the ring numbering of rings.py
+    drawn_as: str  # 'chair', 'flat' or 'unclear'
+    points_up: tuple[bool, ...] = ()  # per ring atom, its V points to the top face (faces.py sense)
+    bonds: tuple[BondReading, ...] = ()
+    tilt: float = 0.0  # degrees the chair axis is turned from the page's vertical
+    reason: str = ""  # why a ring is 'unclear'
+
+    @property
+    def up_atoms(self) -> tuple[int, ...]:
+        return tuple(a for a, up in zip(self.atoms, self.points_up) if up)
+
+    def to_dict(self) -> dict:
+        return {
+            "atom_numbers": [a + 1 for a in self.atoms],
+            "drawn_as": self.drawn_as,
+            "up_atom_numbers": [a + 1 for a in self.up_atoms],
+            "tilt_deg": round(self.tilt, 1) + 0.0,
+            "bonds": [b.to_dict() for b in self.bonds],
+            "reason": self.reason,
+        }
+
+
+@dataclass(frozen=True)
+class Perception:
+    """What the drawing shows: the molecule with chiral tags from the chair(s) and the wedges."""
+
+    mol: Chem.Mol = field(repr=False, compare=False)
+    rings: tuple[RingReading, ...]
+    warnings: tuple[str, ...]  # drawing-quality findings, each naming its atom
+    undetermined: tuple[int, ...]  # ring atoms whose configuration the picture does not settle
+    reasons: tuple[str, ...]  # why, one line per undetermined atom
+    conflicts: tuple[str, ...]  # wedges that contradict the chair
+
+    @property
+    def chairs(self) -> tuple[RingReading, ...]:
+        return tuple(r for r in self.rings if r.drawn_as == "chair")
+
+
+def perceive(mol: Chem.Mol) -> Perception:
+    """Read the chairs of a 2D drawing. ``mol`` as parsed from the molfile (H atoms kept)."""
+    if not mol.GetNumConformers():
+        raise StereoError("the drawing has no coordinates: nothing to read a chair from")
+    conf = mol.GetConformer()
+    xy = [(conf.GetAtomPosition(i).x, conf.GetAtomPosition(i).y) for i in range(mol.GetNumAtoms())]
+    rings, _ = find_rings(mol)
+    readings: list[RingReading] = []
+    warnings: list[str] = []
+    reasons: dict[int, str] = {}
+    conflicts: list[str] = []
+    out = Chem.Mol(mol)
+    by_chair: set[int] = set()  # ring atoms whose tags a chair ring has set
+    for ring in rings:
+        reading, ring_warnings, ring_faces, ring_reasons = _read_ring(mol, ring, xy)
+        readings.append(reading)
+        warnings += ring_warnings
+        for atom, why in ring_reasons.items():
+            reasons.setdefault(atom, why)
+        if reading.drawn_as == "chair" and ring_faces:
+            conflicts += _conflicts(out, ring, ring_faces, by_chair)
+            out = set_faces(out, ring, ring_faces)
+            by_chair |= {a for a in ring.atoms if any(s in ring_faces for s in _exo(mol, ring, a))}
+    for atom in reasons.keys() - by_chair:  # undetermined: neither a guess nor a stale wedge
+        out.GetAtomWithIdx(atom).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+    for atom in by_chair & reasons.keys():
+        del reasons[atom]  # another chair ring of a fused system settled it
+    forget_stereo_perception(out)
+    Chem.AssignStereochemistry(out, cleanIt=False, force=True)
+    return Perception(
+        mol=out,
+        rings=tuple(readings),
+        warnings=tuple(dict.fromkeys(warnings)),
+        undetermined=tuple(sorted(reasons)),
+        reasons=tuple(reasons[a] for a in sorted(reasons)),
+        conflicts=tuple(dict.fromkeys(conflicts)),
+    )
+
+
+def _exo(mol: Chem.Mol, ring: ChairRing, atom: int) -> list[int]:
+    members = set(ring.atoms)
+    return [n.GetIdx() for n in mol.GetAtomWithIdx(atom).GetNeighbors() if n.GetIdx() not in members]
+
+
+def _read_ring(mol, ring: ChairRing, xy) -> tuple[RingReading, list[str], dict[int, str], dict[int, str]]:
+    """(reading, warnings, faces by substituent atom, reasons by undetermined ring atom)."""
+    pts = [xy[a] for a in ring.atoms]
+    bond = sum(_dist(pts[k], pts[k - 1]) for k in range(6)) / 6
+    if bond < 1e-6:
+        return RingReading(ring.atoms, "unclear", reason="the ring's atoms share one position"), [], {}, {}
+    even = _centroid(pts[0::2])
+    odd = _centroid(pts[1::2])
+    axis = (even[0] - odd[0], even[1] - odd[1])
+    pucker = math.hypot(*axis) / bond
+    if pucker < MIN_PUCKER:
+        return RingReading(ring.atoms, "flat"), [], {}, {}
+    up = (axis[0] / (pucker * bond), axis[1] / (pucker * bond))
+    if up[1] < 0:
+        up = (-up[0], -up[1])
+    tilt = math.degrees(math.atan2(up[0], up[1]))  # positive: turned clockwise
+    numbers = [a + 1 for a in ring.atoms]
+    if abs(tilt) > MAX_TILT:
+        why = f"the chair's axis is turned {abs(tilt):.0f}° from vertical: which way is up cannot be told"
+        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), [], {}, dict.fromkeys(ring.atoms, why)
+    area = _signed_area(pts) / bond**2
+    if abs(area) < MIN_AREA:
+        why = "the ring is drawn edge-on: which face the viewer sees cannot be told"
+        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), [], {}, dict.fromkeys(ring.atoms, why)
+    clockwise = area < 0  # y up, as in a molfile
+    heights = [_dot(p, up) for p in pts]
+    v_up: list[bool | None] = []
+    warnings: list[str] = []
+    for k in range(6):
+        h, before, after = heights[k], heights[k - 1], heights[(k + 1) % 6]
+        v_up.append(True if h > max(before, after) else False if h < min(before, after) else None)
+    expected = [(k % 2 == 0) == (_dot(even, up) > _dot(odd, up)) for k in range(6)]
+    reasons: dict[int, str] = {}
+    wrong_way = []
+    for k in range(6):
+        if v_up[k] is None:  # a steep view: the alternate sets still say which way it points
+            warnings.append(f"ring atom {numbers[k]}: not drawn as a V (one neighbour above it, one below)")
+        elif v_up[k] != expected[k]:
+            warnings.append(f"ring atom {numbers[k]}: its V points the wrong way for a chair")
+            wrong_way.append(k)
+    if not _opposite_bonds_parallel(pts):
+        why = "opposite ring bonds are not parallel: the ring is not drawn as a chair"
+        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), warnings, {}, dict.fromkeys(ring.atoms, why)
+    if len(wrong_way) > 1:
+        why = f"{len(wrong_way)} ring atoms point the wrong way: the ring is not drawn as a chair"
+        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), warnings, {}, dict.fromkeys(ring.atoms, why)
+    readings: list[BondReading] = []
+    faces: dict[int, str] = {}
+    centre = _centroid(pts)
+    for k, a in enumerate(ring.atoms):
+        if k in ring.trigonal or mol.GetAtomWithIdx(a).GetTotalDegree() < 4:
+            continue  # no configuration: C=O, or a ring N with its lone pair (it inverts)
+        exo = _exo(mol, ring, a)
+        here = [_read_bond(a, n, k, pts, xy, up, expected[k], centre, bond) for n in exo]
+        readings += [r for r, _ in here]
+        for _, note in here:
+            warnings += note
+        problem = _atom_problem(numbers[k], [r for r, _ in here], k not in wrong_way)
+        if problem:
+            reasons[a] = problem
+            continue
+        for r, _ in here:
+            if r.side is not None:
+                faces[r.atom] = TOP if (r.side == "up") == clockwise else BOTTOM
+    points_up = tuple(e == clockwise for e in expected)
+    reading = RingReading(ring.atoms, "chair", points_up, tuple(readings), tilt)
+    return reading, warnings, faces, reasons
+
+
+def _read_bond(ring_atom, atom, k, pts, xy, up, v_is_up, centre, bond) -> tuple[BondReading, list[str]]:
+    p = pts[k]
+    q = xy[atom]
+    v = (q[0] - p[0], q[1] - p[1])
+    length = math.hypot(*v)
+    if length < 0.05 * bond:
+        reading = BondReading(ring_atom, atom, UNDETERMINED, None, 90.0, 90.0, 0.0)
+        return reading, [f"ring atom {ring_atom + 1}: its bond to atom {atom + 1} has no length"]
+    v = (v[0] / length, v[1] / length)
+    # the axial bond of a V pointing up goes up, and of one pointing down goes down: measured
+    # against that ray, a steep equatorial bond going the other way is not mistaken for axial
+    ray = up if v_is_up else (-up[0], -up[1])
+    off_ray = math.degrees(math.acos(max(-1.0, min(1.0, _dot(v, ray)))))
+    off_axis = min(off_ray, 180.0 - off_ray)
+    # the equatorial reference: the two ring bonds one step away, parallel in a chair drawing
+    d1 = _unit(pts[(k + 2) % 6], pts[(k + 1) % 6])
+    d2 = _unit(pts[(k - 2) % 6], pts[(k - 1) % 6])
+    reference = (d1[0] + d2[0], d1[1] + d2[1])
+    off_eq = _line_angle(v, reference) if math.hypot(*reference) > 1e-6 else 90.0
+    notes: list[str] = []
+    what = f"ring atom {ring_atom + 1}: bond to atom {atom + 1}"
+    side: str | None
+    if off_ray <= TOLERANCE and off_eq - off_ray >= MARGIN:
+        position, own, other = AXIAL, off_ray, off_eq
+        side = "up" if v_is_up else "down"
+        if off_ray > QUALITY:
+            notes.append(f"{what}: axial bond {off_ray:.0f}° off the chair's axis")
+    elif off_eq <= TOLERANCE and off_ray - off_eq >= MARGIN:
+        position, own, other = EQUATORIAL, off_eq, off_ray
+        side = "down" if v_is_up else "up"
+        if off_eq > QUALITY:
+            notes.append(f"{what}: equatorial bond {off_eq:.0f}° off parallel to its ring bonds")
+        if (p[0] - centre[0]) * v[0] + (p[1] - centre[1]) * v[1] < 0:
+            notes.append(f"{what}: equatorial bond drawn into the ring")
+    elif off_ray >= 180.0 - TOLERANCE:
+        position, own, other, side = UNDETERMINED, off_axis, off_eq, None
+        notes.append(f"{what} is drawn axial but points against the atom's V")
+    else:
+        position, own, other, side = UNDETERMINED, min(off_axis, off_eq), max(off_axis, off_eq), None
+        notes.append(f"{what} is {off_axis:.0f}° from the axis and {off_eq:.0f}° from the equatorial direction")
+    if side is None:
+        position = UNDETERMINED
+    confidence = 0.0 if position == UNDETERMINED else max(0.0, min(1.0, (other - own) / 45.0))
+    return BondReading(ring_atom, atom, position, side, off_axis, off_eq, confidence), notes
+
+
+def _atom_problem(number: int, here: list[BondReading], v_ok: bool) -> str | None:
+    """Why a ring atom's configuration cannot be read, or None."""
+    if not here:
+        return None
+    if not v_ok:
+        return f"ring atom {number}: its V does not alternate, so its axial direction is unknown"
+    if any(r.position == UNDETERMINED for r in here):
+        bad = next(r for r in here if r.position == UNDETERMINED)
+        return f"ring atom {number}: the bond to atom {bad.atom + 1} is neither clearly axial nor clearly equatorial"
+    if len(here) == 2:
+        if here[0].position == here[1].position:
+            return f"ring atom {number}: two {here[0].position} bonds"
+        if here[0].side == here[1].side:
+            return f"ring atom {number}: both bonds drawn on one face"
+    return None
+
+
+def _conflicts(mol: Chem.Mol, ring: ChairRing, faces: dict[int, str], by_chair: set[int]) -> list[str]:
+    """Faces the drawing already gives (a wedge, or a fused chair ring read before) that differ
+    from this chair's."""
+    tagged = {a for a in ring.atoms if mol.GetAtomWithIdx(a).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED}
+    if not tagged:
+        return []
+    try:
+        slots = ring_slots(mol, ring)
+    except StereoError:
+        return []
+    out = []
+    for s in slots:
+        if s.ring_atom in tagged and s.atom in faces and s.face is not None and s.face != faces[s.atom]:
+            source = "another chair ring" if s.ring_atom in by_chair else "a wedge"
+            out.append(
+                f"ring atom {s.ring_atom + 1}: {source} puts atom {s.atom + 1} on the other face from this chair"
+            )
+    return out
+
+
+def _opposite_bonds_parallel(pts) -> bool:
+    for k in range(3):
+        a = _unit(pts[(k + 1) % 6], pts[k])
+        b = _unit(pts[(k + 4) % 6], pts[(k + 3) % 6])
+        if _line_angle(a, b) > PARALLEL:
+            return False
+    return True
+
+
+def _centroid(pts) -> tuple[float, float]:
+    return sum(p[0] for p in pts) / len(pts), sum(p[1] for p in pts) / len(pts)
+
+
+def _dist(p, q) -> float:
+    return math.hypot(p[0] - q[0], p[1] - q[1])
+
+
+def _dot(p, q) -> float:
+    return p[0] * q[0] + p[1] * q[1]
+
+
+def _unit(p, q) -> tuple[float, float]:
+    d = math.hypot(p[0] - q[0], p[1] - q[1]) or 1.0
+    return (p[0] - q[0]) / d, (p[1] - q[1]) / d
+
+
+def _line_angle(v, w) -> float:
+    """Angle in degrees between the lines along v and w (0..90)."""
+    n = math.hypot(*v) * math.hypot(*w)
+    c = abs(_dot(v, w)) / n if n else 0.0
+    return math.degrees(math.acos(min(1.0, c)))
+
+
+def _signed_area(pts) -> float:
+    return 0.5 * sum(pts[k - 1][0] * pts[k][1] - pts[k][0] * pts[k - 1][1] for k in range(len(pts)))
