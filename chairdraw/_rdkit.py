@@ -114,3 +114,91 @@ def without_hs(mol: Chem.Mol) -> tuple[Chem.Mol, dict[int, int]]:
     heavy = Chem.RemoveHs(tagged, sanitize=False)
     heavy.UpdatePropertyCache(strict=False)  # without it an O that lost its H atom counts none
     return heavy, {a.GetIntProp("_chairdraw_index"): a.GetIdx() for a in heavy.GetAtoms()}
+
+
+def layout_around(mol: Chem.Mol, pinned: dict) -> None:
+    """RDKit's 2D layout of ``mol`` with the atoms in ``pinned`` ({index: Point2D}) kept where they
+    are, and every stereo double bond then drawn the way it is: measured here, a layout with a
+    coordMap put the O of an exocyclic oxime (CCN(CC)[C@@H]1CCCC/C1=N/O) on the wrong side. A
+    wrong bond gets its free side reflected across the double bond's line."""
+    from rdkit.Chem import rdDepictor
+
+    rdDepictor.Compute2DCoords(mol, coordMap=pinned)
+    stereo = [
+        b.GetIdx()
+        for b in mol.GetBonds()
+        if b.GetBondType() == Chem.BondType.DOUBLE and b.GetStereo() != Chem.BondStereo.STEREONONE
+    ]
+    if not stereo:
+        return
+    wanted = _double_bond_labels(mol)
+    drawn = _double_bond_labels(_stereo_from_2d(mol))
+    conf = mol.GetConformer()
+    moved: set[int] = set()
+    for idx in stereo:
+        if wanted.get(idx) is None or drawn.get(idx) in (None, wanted[idx]):
+            continue
+        bond = mol.GetBondWithIdx(idx)
+        a, b = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+        for near, far in ((a, b), (b, a)):
+            side = _side(mol, far, near)
+            if side is not None and not side & pinned.keys():
+                _reflect(conf, side, conf.GetAtomPosition(near), conf.GetAtomPosition(far))
+                moved |= side | {near, far}
+                break
+    if moved:  # lay the rest out again around the mended bonds, so that nothing lands on them
+        from rdkit.Geometry import Point2D
+
+        again = dict(pinned)
+        for i in moved:
+            p = conf.GetAtomPosition(i)
+            again[i] = Point2D(p.x, p.y)
+        rdDepictor.Compute2DCoords(mol, coordMap=again)
+
+
+def _double_bond_labels(mol: Chem.Mol) -> dict[int, str]:
+    from rdkit.Chem import rdCIPLabeler
+
+    labelled = Chem.Mol(mol)
+    try:
+        rdCIPLabeler.AssignCIPLabels(labelled)
+    except (RuntimeError, ValueError):
+        return {}
+    return {b.GetIdx(): b.GetProp("_CIPCode") for b in labelled.GetBonds() if b.HasProp("_CIPCode")}
+
+
+def _stereo_from_2d(mol: Chem.Mol) -> Chem.Mol:
+    out = Chem.Mol(mol)
+    for b in out.GetBonds():
+        if b.GetBondType() == Chem.BondType.DOUBLE:
+            b.SetStereo(Chem.BondStereo.STEREONONE)
+    Chem.DetectBondStereochemistry(out, out.GetConformer().GetId())
+    Chem.AssignStereochemistry(out, cleanIt=True, force=True)
+    return out
+
+
+def _side(mol: Chem.Mol, start: int, blocked: int) -> set[int] | None:
+    """Atoms reached from ``start`` without passing ``blocked``; None when the two are in one ring."""
+    seen = {start}
+    todo = [start]
+    while todo:
+        atom = mol.GetAtomWithIdx(todo.pop())
+        for n in atom.GetNeighbors():
+            j = n.GetIdx()
+            if j == blocked and atom.GetIdx() != start:
+                return None
+            if j != blocked and j not in seen:
+                seen.add(j)
+                todo.append(j)
+    return seen - {start} or set()
+
+
+def _reflect(conf, atoms: set[int], p, q) -> None:
+    """Mirror ``atoms`` across the line through p and q."""
+    dx, dy = q.x - p.x, q.y - p.y
+    norm = (dx * dx + dy * dy) or 1.0
+    for i in atoms:
+        r = conf.GetAtomPosition(i)
+        t = ((r.x - p.x) * dx + (r.y - p.y) * dy) / norm
+        fx, fy = p.x + t * dx, p.y + t * dy
+        conf.SetAtomPosition(i, (2 * fx - r.x, 2 * fy - r.y, r.z))

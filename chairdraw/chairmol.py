@@ -12,10 +12,9 @@ elsewhere (side chains, other rings) carry wedges, as in any flat drawing.
 from __future__ import annotations
 
 from rdkit import Chem
-from rdkit.Chem import rdDepictor
 from rdkit.Geometry import Point2D
 
-from ._rdkit import without_hs
+from ._rdkit import layout_around, without_hs
 from .chairpanel import chair_panel, shown_chairs
 from .errors import FigureError
 from .render.style import CHAIRS, Style
@@ -66,7 +65,7 @@ def chair_molblock(analysis: Analysis, ring: int = 0, chair: str = "favored", st
         pinned[atom] = Point2D(x * scale, -y * scale)
     out = mol.GetMol()
     Chem.SanitizeMol(out)
-    rdDepictor.Compute2DCoords(out, coordMap=pinned)
+    layout_around(out, pinned)
     # the chair's own centres: plain bonds, its geometry carries their stereo; every other
     # stereocentre (side chains, other rings) keeps a wedge, as in any flat drawing
     for a in result.atoms:

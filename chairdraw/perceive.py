@@ -51,6 +51,8 @@ class BondReading:
     off_axis: float  # degrees between the bond and the chair axis
     off_equatorial: float  # degrees between the bond and its equatorial reference
     confidence: float  # 0..1: how clearly the angles separate the two readings
+    problem: str = ""  # for an undetermined bond: 'between' (axial or equatorial?), 'against' (axial
+    # against its V), 'inward' or 'no length'
 
     def to_dict(self) -> dict:
         return {
@@ -61,6 +63,7 @@ class BondReading:
             "off_axis_deg": round(self.off_axis, 1),
             "off_equatorial_deg": round(self.off_equatorial, 1),
             "confidence": round(self.confidence, 2),
+            "problem": self.problem,
         }
 
 
@@ -112,7 +115,7 @@ def perceive(mol: Chem.Mol) -> Perception:
         raise StereoError("the drawing has no coordinates: nothing to read a chair from")
     conf = mol.GetConformer()
     xy = [(conf.GetAtomPosition(i).x, conf.GetAtomPosition(i).y) for i in range(mol.GetNumAtoms())]
-    rings, _ = find_rings(mol)
+    rings, _ = find_rings(mol, fused=True)
     readings: list[RingReading] = []
     warnings: list[str] = []
     reasons: dict[int, str] = {}
@@ -193,6 +196,12 @@ def _read_ring(mol, ring: ChairRing, xy) -> tuple[RingReading, list[str], dict[i
     if not _opposite_bonds_parallel(pts):
         why = "opposite ring bonds are not parallel: the ring is not drawn as a chair"
         return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), warnings, {}, dict.fromkeys(ring.atoms, why)
+    not_v = [k for k in range(6) if v_up[k] is None]
+    if len(not_v) > 2 or (len(not_v) == 2 and (not_v[1] - not_v[0]) != 3):
+        # a chair seen from well above loses the V at its two tips, which sit opposite each other;
+        # anything else is a boat or twist-boat, or a careless drawing
+        why = f"{len(not_v)} ring atoms are not drawn as Vs: the ring is not drawn as a chair"
+        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), warnings, {}, dict.fromkeys(ring.atoms, why)
     if len(wrong_way) > 1:
         why = f"{len(wrong_way)} ring atoms point the wrong way: the ring is not drawn as a chair"
         return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), warnings, {}, dict.fromkeys(ring.atoms, why)
@@ -225,7 +234,7 @@ def _read_bond(ring_atom, atom, k, pts, xy, up, v_is_up, centre, bond) -> tuple[
     v = (q[0] - p[0], q[1] - p[1])
     length = math.hypot(*v)
     if length < 0.05 * bond:
-        reading = BondReading(ring_atom, atom, UNDETERMINED, None, 90.0, 90.0, 0.0)
+        reading = BondReading(ring_atom, atom, UNDETERMINED, None, 90.0, 90.0, 0.0, "no length")
         return reading, [f"ring atom {ring_atom + 1}: its bond to atom {atom + 1} has no length"]
     v = (v[0] / length, v[1] / length)
     # the axial bond of a V pointing up goes up, and of one pointing down goes down: measured
@@ -241,6 +250,7 @@ def _read_bond(ring_atom, atom, k, pts, xy, up, v_is_up, centre, bond) -> tuple[
     notes: list[str] = []
     what = f"ring atom {ring_atom + 1}: bond to atom {atom + 1}"
     side: str | None
+    problem = ""
     if off_ray <= TOLERANCE and off_eq - off_ray >= MARGIN:
         position, own, other = AXIAL, off_ray, off_eq
         side = "up" if v_is_up else "down"
@@ -254,15 +264,21 @@ def _read_bond(ring_atom, atom, k, pts, xy, up, v_is_up, centre, bond) -> tuple[
         if (p[0] - centre[0]) * v[0] + (p[1] - centre[1]) * v[1] < 0:
             notes.append(f"{what}: equatorial bond drawn into the ring")
     elif off_ray >= 180.0 - TOLERANCE:
-        position, own, other, side = UNDETERMINED, off_axis, off_eq, None
+        position, own, other, side, problem = UNDETERMINED, off_axis, off_eq, None, "against"
         notes.append(f"{what} is drawn axial but points against the atom's V")
     else:
-        position, own, other, side = UNDETERMINED, min(off_axis, off_eq), max(off_axis, off_eq), None
+        position, own, other, side, problem = (
+            UNDETERMINED,
+            min(off_axis, off_eq),
+            max(off_axis, off_eq),
+            None,
+            "between",
+        )
         notes.append(f"{what} is {off_axis:.0f}° from the axis and {off_eq:.0f}° from the equatorial direction")
     if side is None:
         position = UNDETERMINED
     confidence = 0.0 if position == UNDETERMINED else max(0.0, min(1.0, (other - own) / 45.0))
-    return BondReading(ring_atom, atom, position, side, off_axis, off_eq, confidence), notes
+    return BondReading(ring_atom, atom, position, side, off_axis, off_eq, confidence, problem), notes
 
 
 def _atom_problem(number: int, here: list[BondReading], v_ok: bool) -> str | None:
@@ -271,8 +287,13 @@ def _atom_problem(number: int, here: list[BondReading], v_ok: bool) -> str | Non
         return None
     if not v_ok:
         return f"ring atom {number}: its V does not alternate, so its axial direction is unknown"
-    if any(r.position == UNDETERMINED for r in here):
-        bad = next(r for r in here if r.position == UNDETERMINED)
+    unclear = [r for r in here if r.position == UNDETERMINED]
+    # one clear bond settles a tetrahedral centre, when the other is merely drawn between the two
+    # directions (a fused ring pulls a junction bond off its ideal line); never when it contradicts
+    if unclear and not (len(here) == 2 and len(unclear) == 1 and unclear[0].problem == "between"):
+        bad = unclear[0]
+        if bad.problem == "against":
+            return f"ring atom {number}: the bond to atom {bad.atom + 1} is drawn axial but against the atom's V"
         return f"ring atom {number}: the bond to atom {bad.atom + 1} is neither clearly axial nor clearly equatorial"
     if len(here) == 2:
         if here[0].position == here[1].position:

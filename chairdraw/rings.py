@@ -77,8 +77,13 @@ class RefusedRing:
         return {"atoms": list(self.atoms), "reason": self.reason}
 
 
-def find_rings(mol: Chem.Mol, graph: MolGraph | None = None) -> tuple[list[ChairRing], list[RefusedRing]]:
-    """Every six-membered ring of the molecule, either accepted as a chair ring or refused."""
+def find_rings(
+    mol: Chem.Mol, graph: MolGraph | None = None, fused: bool = False
+) -> tuple[list[ChairRing], list[RefusedRing]]:
+    """Every six-membered ring of the molecule, either accepted as a chair ring or refused.
+
+    ``fused=True`` also accepts rings of fused and spiro systems (each ring on its own): reading a
+    drawing needs only the ring's atoms, while the energy model does not cover them yet."""
     graph = graph or MolGraph(mol)
     accepted: list[ChairRing] = []
     refused: list[RefusedRing] = []
@@ -89,7 +94,7 @@ def find_rings(mol: Chem.Mol, graph: MolGraph | None = None) -> tuple[list[Chair
         reason = _flat(graph, ring)
         if reason is None:
             facts = _facts(graph, ring)
-            reason = _refusal(graph, ring, all_rings, facts)
+            reason = _refusal(graph, ring, all_rings, facts, fused)
             if reason is None:
                 accepted.append(_numbered(ring, facts))
                 continue
@@ -191,7 +196,7 @@ def _flat(graph: MolGraph, ring: tuple[int, ...]) -> str | None:
 
 
 def _refusal(
-    graph: MolGraph, ring: tuple[int, ...], all_rings: list[tuple[int, ...]], facts: dict[int, _Facts]
+    graph: MolGraph, ring: tuple[int, ...], all_rings: list[tuple[int, ...]], facts: dict[int, _Facts], fused: bool
 ) -> str | None:
     members = set(ring)
     for other in all_rings:
@@ -206,6 +211,8 @@ def _refusal(
             what = "fused"
         else:
             what = "bridged"
+        if fused and what != "bridged":
+            continue
         return (
             f"{what} ring system (shares atoms {', '.join(map(str, sorted(shared)))} with another ring): "
             "not supported yet"

@@ -15,7 +15,7 @@ from rdkit import Chem
 from rdkit.Chem import rdDepictor
 from rdkit.Geometry import Point2D
 
-from ._rdkit import without_hs
+from ._rdkit import layout_around, without_hs
 from .labels import NORMAL, SUB, SUP
 from .layout import Point, Polygon, Stroke, Text, TextRun, anchored_label, bond_lines, symbol_box, trimmed
 from .render import text as fonttext
@@ -78,7 +78,7 @@ def draw_groups(
         Chem.Kekulize(heavy, clearAromaticFlags=True)
     except Chem.KekulizeException:
         pass  # drawn with the bond orders as they are
-    rdDepictor.Compute2DCoords(heavy, coordMap=pinned)
+    layout_around(heavy, pinned)
     conf = heavy.GetConformer()
     # stereocentres inside a group keep their configuration on the page as wedges and hashes; the
     # chair's own atoms get none (the chair drawing itself shows their configuration)

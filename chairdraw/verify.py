@@ -164,6 +164,14 @@ class Checker:
             return result(
                 "diastereomer", "configuration differs (the atoms could not be mapped one to one)", (), favored
             )
+        if not diffs:
+            bonds = _double_bond_differences(variants[0], d_heavy, matches, drawn_mol)
+            return result(
+                "diastereomer",
+                "configuration differs at " + (bonds or "no single centre that can be named"),
+                (),
+                favored,
+            )
         where = ", ".join(
             f"atom {c.registered_atom} ({c.registered_cip or '-'} registered, {c.drawn_cip or '-'} drawn)"
             for c in diffs
@@ -235,18 +243,20 @@ def _matches(reg: Chem.Mol, drawn: Chem.Mol) -> list[tuple[int, ...]]:
 
 
 def _unread_centres(reg, drawn, matches, seen: Perception | None, index: dict[int, int]) -> list[str]:
-    """Registered stereocentres the drawing leaves undetermined, with the reason."""
-    if seen is None or not seen.undetermined:
-        return []
+    """Registered stereocentres the drawing does not show, each with the reason."""
+    why = dict(zip(seen.undetermined, seen.reasons)) if seen is not None else {}
     if not matches:  # no atom mapping: any undetermined atom may matter
-        return list(dict.fromkeys(seen.reasons))
-    why = dict(zip(seen.undetermined, seen.reasons))
-    centres = _specified_centres(reg)
+        return list(dict.fromkeys(why.values()))
     out = []
-    for c in centres:
-        drawn_atom = index.get(matches[0][c])
-        if drawn_atom in why:
-            out.append(why[drawn_atom])
+    for c in _specified_centres(reg):
+        d = matches[0][c]
+        if drawn.GetAtomWithIdx(d).GetChiralTag() in (CW, CCW):
+            continue
+        number = index.get(d, d) + 1
+        out.append(
+            why.get(index.get(d, d))
+            or f"atom {number}: a registered stereocentre the drawing does not show (no wedge, not on a ring drawn as a chair)"
+        )
     return list(dict.fromkeys(out))
 
 
@@ -304,6 +314,33 @@ def _differences(variants, drawn: Chem.Mol, matches, drawn_mol: Chem.Mol) -> lis
         )
         for c in diff
     ]
+
+
+def _double_bond_differences(reg: Chem.Mol, drawn: Chem.Mol, matches, drawn_mol: Chem.Mol) -> str:
+    """Double bonds whose E/Z (CIP) differs, as words; '' when none can be named."""
+    if not matches:
+        return ""
+    index = _heavy_index(drawn_mol)
+    a, b = Chem.Mol(reg), Chem.Mol(drawn)
+    try:
+        rdCIPLabeler.AssignCIPLabels(a)
+        rdCIPLabeler.AssignCIPLabels(b)
+    except (RuntimeError, ValueError):
+        return ""
+    out = []
+    for bond in a.GetBonds():
+        if not bond.HasProp("_CIPCode"):
+            continue
+        i, j = matches[0][bond.GetBeginAtomIdx()], matches[0][bond.GetEndAtomIdx()]
+        other = b.GetBondBetweenAtoms(i, j)
+        drawn_label = other.GetProp("_CIPCode") if other is not None and other.HasProp("_CIPCode") else None
+        if drawn_label != bond.GetProp("_CIPCode"):
+            out.append(
+                f"the double bond between atoms {bond.GetBeginAtomIdx() + 1} and {bond.GetEndAtomIdx() + 1}"
+                f" ({bond.GetProp('_CIPCode')} registered, {drawn_label or 'not set'} drawn;"
+                f" drawn atoms {index.get(i, i) + 1}, {index.get(j, j) + 1})"
+            )
+    return "; ".join(out)
 
 
 def _cip(mol: Chem.Mol) -> dict[int, str]:

@@ -609,6 +609,32 @@ def test_e_and_z_exocyclic_isomers_differ():
     assert e != z
 
 
+@pytest.mark.parametrize(
+    "smiles",
+    [
+        "CCN(CC)[C@@H]1CCCC/C1=N/O",  # RDKit's layout around the pinned chair drew this oxime E
+        "CCN(CC)[C@@H]1CCCC/C1=N\\O",
+        "CCOC(=O)/C=C1/CC[C@@H](C)[C@H](C)C1",
+        "CCOC(=O)/C=C1\\CC[C@@H](C)[C@H](C)C1",
+        "C/C=C/[C@H]1CC[C@@H](C)CC1",
+        "C/C=C\\[C@H]1CC[C@@H](C)CC1",
+    ],
+)
+@pytest.mark.parametrize("which", ["favored", "flip"])
+def test_double_bonds_keep_their_geometry_in_the_chair_molfile(smiles, which):
+    """RDKit reads E/Z from the molfile's 2D coordinates; its CIP label must be the input's."""
+    from rdkit.Chem import rdCIPLabeler
+
+    from chairdraw.chairmol import chair_molblock
+
+    def labels(mol):
+        rdCIPLabeler.AssignCIPLabels(mol)
+        return sorted(b.GetProp("_CIPCode") for b in mol.GetBonds() if b.HasProp("_CIPCode"))
+
+    block = chair_molblock(chairdraw.analyze(smiles), chair=which)
+    assert labels(Chem.MolFromMolBlock(block)) == labels(Chem.MolFromSmiles(smiles))
+
+
 def test_racemic_input_says_so_in_the_figure():
     figure = chairdraw.draw("C[C@H]1CC[C@@H](O)CC1 |&1:1,4|")
     assert any(t.role == "note" and "racemic" in t.plain for t in figure.texts)
