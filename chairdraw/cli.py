@@ -15,13 +15,13 @@ from collections.abc import Sequence
 from . import __version__
 from .analyze import FORCEFIELD_MODES, SOLVENTS, Analyzer
 from .chairmol import chair_molblock
-from .demo import demo_records
+from .demo import demo_drawings, demo_records, demo_registry
 from .errors import ChairdrawError, FigureError
 from .figure import draw_analysis
 from .read import FORMATS, read, read_text
 from .render.export import check_dpi, output_type
 from .render.style import CHAIRS, HYDROGENS, Style, load_style
-from .report import DISCLAIMER, format_analysis, format_check, summary_line
+from .report import DISCLAIMER, check_line, format_analysis, format_check, summary_line
 from .verify import CAVEAT, Checker
 
 OK, MISMATCH, BAD_INPUT = 0, 1, 2
@@ -240,11 +240,18 @@ def _demo(args, analyzer: Analyzer) -> int:
             print()
         else:
             print(summary_line(result, args.units or "kcal"))
-    if args.json:
+    if args.json:  # the analyses only: one schema per JSON output (`chairdraw check --json` has its own)
         print(json.dumps(rows, indent=2, ensure_ascii=False))
     else:
+        checker = Checker(analyzer)
+        registry = demo_registry()
+        print()
+        print("Chair drawings from the group's figure drafts, checked against the registry:")
+        for record, block, drawn in demo_drawings():
+            print(check_line(checker.check(block, registry[record]), drawn))
         print()
         print(DISCLAIMER)
+        print(CAVEAT)
     return OK
 
 

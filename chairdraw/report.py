@@ -154,8 +154,8 @@ def format_check(result) -> str:
     lines = [f"{title}: {result.verdict} ({result.reason})"]
     for c in result.differing_centers:
         lines.append(
-            f"  differs at registered atom {c.registered_atom} ({c.element}, {c.registered_cip or 'no CIP label'})"
-            f" = drawn atom {c.drawn_atom} ({c.drawn_cip or 'no CIP label'})"
+            f"  differs at registered {c.where}, {c.element}, {c.registered_cip or 'no CIP label'}"
+            f" = drawn atom {c.drawn_atom}, {c.drawn_cip or 'no CIP label'}"
         )
     lines.append(f"  registered stereo: {result.registered_stereo}")
     if result.perception is not None:
@@ -172,3 +172,14 @@ def format_check(result) -> str:
     for warning in result.warnings:
         lines.append(f"  warning: {warning}")
     return "\n".join(lines)
+
+
+def check_line(result, drawn: str = "") -> str:
+    """One line per check, for lists of many: id, verdict, where it differs, the chair drawn."""
+    what = f" [{drawn}]" if drawn else ""
+    line = f"  {result.record or 'drawing'}{what}: {result.verdict}"
+    if result.verdict != "match":
+        line += f" - {result.reason}"
+    if result.drawn_chair_favored is False:
+        line += " (the minor chair is drawn)"
+    return line

@@ -27,6 +27,7 @@ from .errors import ChairdrawError, InputError
 from .faces import CCW, CW, mirror, parity
 from .perceive import Perception, perceive
 from .read import Structure, read
+from .rings import find_rings
 
 VERDICTS = ("match", "enantiomer", "diastereomer", "different-compound", "not-a-chair", "undetermined")
 CAVEAT = (
@@ -44,10 +45,20 @@ class CentreDifference:
     element: str
     registered_cip: str | None  # R/S (r/s) where CIP gives one
     drawn_cip: str | None
+    locant: str | None = None  # the ring locant of the centre in the registered structure (C4, 2)
+
+    @property
+    def where(self) -> str:
+        """'atom 8 (C4)': the atom number with the ring locant a chemist would use."""
+        if self.locant is None:
+            return f"atom {self.registered_atom}"
+        locant = self.locant if self.locant[:1].isalpha() else f"ring locant {self.locant}"
+        return f"atom {self.registered_atom} ({locant})"
 
     def to_dict(self) -> dict:
         return {
             "registered_atom_number": self.registered_atom,
+            "locant": self.locant,
             "drawn_atom_number": self.drawn_atom,
             "element": self.element,
             "registered_cip": self.registered_cip,
@@ -159,7 +170,7 @@ class Checker:
             return result(
                 "enantiomer", "the drawing shows the mirror image of the registered structure", favored=favored
             )
-        diffs = _differences(variants, d_heavy, matches, drawn_mol)
+        diffs = _differences(variants, d_heavy, matches, drawn_mol, _heavy_index(reg.mol))
         if not diffs and not matches:
             return result(
                 "diastereomer", "configuration differs (the atoms could not be mapped one to one)", (), favored
@@ -173,7 +184,7 @@ class Checker:
                 favored,
             )
         where = ", ".join(
-            f"atom {c.registered_atom} ({c.registered_cip or '-'} registered, {c.drawn_cip or '-'} drawn)"
+            f"{c.where}: {c.registered_cip or 'no CIP label'} registered, {c.drawn_cip or 'no CIP label'} drawn"
             for c in diffs
         )
         return result("diastereomer", f"configuration differs at {where or 'a double bond'}", diffs, favored)
@@ -291,7 +302,9 @@ def _same_configuration(reg: Chem.Mol, drawn: Chem.Mol, match: tuple[int, ...], 
     return same_tag == (parity(order, mapped) == 0)
 
 
-def _differences(variants, drawn: Chem.Mol, matches, drawn_mol: Chem.Mol) -> list[CentreDifference]:
+def _differences(
+    variants, drawn: Chem.Mol, matches, drawn_mol: Chem.Mol, reg_index: dict[int, int]
+) -> list[CentreDifference]:
     best: tuple[int, list[int], Chem.Mol, tuple[int, ...]] | None = None
     for variant in variants:
         centres = _specified_centres(variant)
@@ -303,14 +316,16 @@ def _differences(variants, drawn: Chem.Mol, matches, drawn_mol: Chem.Mol) -> lis
         return []
     _, diff, variant, match = best
     reg_cip, drawn_cip = _cip(variant), _cip(drawn)
+    locants = {a: ring.locants[k] for ring in find_rings(variant, fused=True)[0] for k, a in enumerate(ring.atoms)}
     index = _heavy_index(drawn_mol)
     return [
         CentreDifference(
-            c + 1,
+            reg_index.get(c, c) + 1,
             index.get(match[c], match[c]) + 1,
             variant.GetAtomWithIdx(c).GetSymbol(),
             reg_cip.get(c),
             drawn_cip.get(match[c]),
+            locants.get(c),
         )
         for c in diff
     ]

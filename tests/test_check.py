@@ -552,3 +552,48 @@ def test_cli_check_reads_standard_input(monkeypatch, capsys):
     monkeypatch.setattr("sys.stdin", io.StringIO(chair_molblock(chairdraw.analyze(smiles))))
     assert main(["check", "-", "--against", smiles, "--json"]) == 0
     jsonschema.validate(json.loads(capsys.readouterr().out), load("check"))
+
+
+def test_demo_drawings_get_the_verdicts_their_edits_imply(capsys):
+    """The shipped demo drawings (tools/make_demo_drawings.py) are chairdraw's chair molfiles,
+    each changed in a known way; what the change does to the structure is decided by RDKit."""
+    from chairdraw.demo import demo_drawings, demo_registry
+
+    registry = demo_registry()
+    seen = {}
+    for record, block, drawn in demo_drawings():
+        result = check(block, registry[record])
+        seen[record] = result
+        if drawn.startswith(("as registered", "ester drawn", "page turned")):
+            assert result.verdict == "match", (record, result.reason)
+        elif drawn == "mirror image":
+            chiral = _inchi(registry[record]) != _inchi(_mirror_image(registry[record]))
+            assert result.verdict == ("enantiomer" if chiral else "match")
+        elif drawn.startswith("groups on C4 swapped"):
+            assert result.verdict == "diastereomer"
+            assert [c.locant for c in result.differing_centers] == ["C4"]
+        else:
+            raise AssertionError(f"unplanned demo drawing {record}: {drawn}")
+    assert seen["WLW-0120"].drawn_chair_favored is False  # drawn in the minor chair, on purpose
+    assert main(["demo"]) == 0
+    out = capsys.readouterr().out
+    assert "WLW-0133 [groups on C4 swapped (a galacto drawing)]: diastereomer" in out
+    assert "does not replace experimental proof" in out
+
+
+def test_centres_are_numbered_as_in_a_registered_molfile_with_h_atoms():
+    smiles = "C[C@H]1CC[C@@H](O)CC1"
+    registered = Chem.AddHs(Chem.MolFromSmiles("C[C@H]1CC[C@H](O)CC1"))
+    # put the H atoms first, so that the file's numbers differ from the heavy-atom order
+    order = [a.GetIdx() for a in registered.GetAtoms() if a.GetAtomicNum() == 1]
+    order += [a.GetIdx() for a in registered.GetAtoms() if a.GetAtomicNum() != 1]
+    registered = Chem.RenumberAtoms(registered, order)
+    rdDepictor.Compute2DCoords(registered)
+    block = Chem.MolToMolBlock(registered)
+    drawing = chair_molblock(chairdraw.analyze(smiles))
+    result = check(drawing, block)
+    assert result.verdict == "diastereomer"
+    (centre,) = result.differing_centers
+    file_atom = registered.GetAtomWithIdx(centre.registered_atom - 1)
+    assert file_atom.GetSymbol() == "C" and file_atom.GetDegree() == 4  # a ring CH, numbered as in the file
+    assert centre.locant in ("1", "4")
