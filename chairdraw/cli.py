@@ -14,12 +14,15 @@ from collections.abc import Sequence
 
 from . import __version__
 from .analyze import FORCEFIELD_MODES, SOLVENTS, Analyzer
+from .batch import BatchOptions, elapsed_text
+from .bulk import FAIL_ON, run_batch, summary_lines
 from .chairmol import chair_molblock
 from .demo import demo_drawings, demo_records, demo_registry
-from .errors import ChairdrawError, FigureError
+from .errors import ChairdrawError, FigureError, UsageError
 from .figure import draw_analysis
 from .read import FORMATS, read, read_text
-from .render.export import check_dpi, output_type
+from .records import KINDS
+from .render.export import TYPES, check_dpi, output_type
 from .render.style import CHAIRS, HYDROGENS, Style, load_style
 from .report import DISCLAIMER, check_line, format_analysis, format_check, summary_line
 from .verify import CAVEAT, Checker
@@ -99,6 +102,30 @@ def _parser() -> argparse.ArgumentParser:
     )
     energy_options(c)
 
+    b = sub.add_parser("batch", help="figures and reports for a whole compound list (SDF, SMILES file, CSV/TSV)")
+    b.add_argument("input", help="an SDF, a SMILES file (SMILES and id per line), or a CSV/TSV with named columns")
+    b.add_argument("--out", required=True, metavar="DIR", help="output folder (made if missing)")
+    b.add_argument("--formats", default="svg", metavar="LIST", help="figure types, comma-separated: svg,png,pdf (svg)")
+    b.add_argument("--jobs", type=int, default=os.cpu_count() or 1, metavar="N", help="worker processes (all cores)")
+    b.add_argument(
+        "--against", metavar="REGISTRY", help="check each record's drawing against this registry (SDF/CSV/SMILES by id)"
+    )
+    b.add_argument("--resume", action="store_true", help="keep the finished records of an interrupted run")
+    b.add_argument("--quiet", action="store_true", help="no progress and no summary")
+    b.add_argument("--fail-on", choices=FAIL_ON, default="any", help="what makes the exit code 1 (any)")
+    b.add_argument("--input-kind", choices=KINDS, help="the input's kind, when its name does not say")
+    b.add_argument("--registry-kind", choices=KINDS, help="the registry's kind, when its name does not say")
+    b.add_argument("--id-field", metavar="NAME", help="SDF data field or CSV column holding the id (title line / 'id')")
+    b.add_argument(
+        "--structure-column", metavar="NAME", help="CSV column holding the structure (smiles/structure/molfile)"
+    )
+    b.add_argument("--name-column", metavar="NAME", help="CSV column with a name or caption (name/caption)")
+    b.add_argument(
+        "--timeout", type=float, default=120.0, metavar="S", help="seconds per record before it is an error (120)"
+    )
+    figure_options(b)
+    energy_options(b)
+
     d = sub.add_parser("demo", help="analyse the built-in demo set")
     d.add_argument("--full", action="store_true", help="full report for every record, not one line each")
     d.add_argument("--out", metavar="DIR", help="also write each record's figure (SVG and PNG) into DIR")
@@ -130,6 +157,8 @@ def main(argv: Sequence[str] | None = None) -> int:
             return _draw(args, analyzer)
         if args.command == "check":
             return _check(args, analyzer)
+        if args.command == "batch":
+            return _batch(args)
         return _demo(args, analyzer)
     except ChairdrawError as exc:
         print(f"chairdraw: {exc}", file=sys.stderr)
@@ -215,6 +244,69 @@ def _check(args, analyzer: Analyzer) -> int:
         print()
         print(CAVEAT)
     return OK if result.ok else MISMATCH
+
+
+def _batch(args) -> int:
+    formats = tuple(dict.fromkeys(f.strip().lower() for f in args.formats.split(",") if f.strip()))
+    unknown = [f for f in formats if f not in TYPES]
+    if unknown or not formats:
+        raise UsageError(f"--formats takes svg, png and pdf, comma-separated; not {args.formats!r}")
+    if args.jobs < 1:
+        raise UsageError(f"--jobs must be 1 or more, not {args.jobs}")
+    options = BatchOptions(
+        formats=formats,
+        temperature=args.temperature,
+        solvent=args.solvent,
+        forcefield="never" if args.forcefield == "auto" else args.forcefield,
+        style=_style(args),
+        dpi=check_dpi(args.dpi),
+        timeout=args.timeout,
+        chairs=args.chair,
+        show_flat=args.show_flat,
+    )
+    progress = None if args.quiet else _Progress(sys.stderr)
+    summary = run_batch(
+        args.input, args.out, options, args.jobs, args.resume, args.against, args.input_kind, args.id_field,
+        args.structure_column, args.name_column, args.registry_kind, args.fail_on, progress,
+    )  # fmt: skip
+    if progress is not None:
+        progress.finish()
+        for line in summary_lines(summary):
+            print(line, file=sys.stderr)
+        print(DISCLAIMER, file=sys.stderr)
+    return MISMATCH if summary.failed else OK
+
+
+class _Progress:
+    """A bar with rate and ETA on a terminal; a plain line every few seconds otherwise."""
+
+    EVERY = 5.0
+
+    def __init__(self, stream):
+        self.stream = stream
+        self.tty = stream.isatty()
+        self.last = 0.0
+
+    def __call__(self, done: int, total: int | None, started: float) -> None:
+        import time
+
+        now = time.perf_counter()
+        spent = max(now - started, 1e-9)
+        rate = done / spent
+        left = f", ETA {elapsed_text((total - done) / rate)}" if total and rate > 0 and total >= done else ""
+        of = f"/{total}" if total else ""
+        if self.tty:
+            share = done / total if total else 0.0
+            bar = "#" * int(30 * share) + "-" * (30 - int(30 * share))
+            self.stream.write(f"\r[{bar}] {done}{of} {rate:.1f}/s{left} ")
+            self.stream.flush()
+        elif now - self.last >= self.EVERY or (total and done == total):
+            self.last = now
+            print(f"{done}{of} records, {rate:.1f}/s{left}", file=self.stream)
+
+    def finish(self) -> None:
+        if self.tty:
+            self.stream.write("\n")
 
 
 def _demo(args, analyzer: Analyzer) -> int:
