@@ -20,28 +20,58 @@ from .energy import tables
 from .errors import InputError, LabelError
 from .labels import parse_label
 
+AMBIGUOUS = {"NC": "a nitrile written backwards (N≡C-) or an isocyanide (-N≡C)"}
+
 
 @cache
 def _groups() -> dict[str, str]:
     """label -> group SMILES with '*' for the attachment point."""
     out = {row.label: row.group for row in tables.avalues() if row.context is None}
-    for label, group in tables.drawing_labels():
+    for label, group in (*tables.drawing_labels(), *tables.alias_spellings()):
         out.setdefault(label, group)
+    for label in AMBIGUOUS:
+        out.pop(label, None)
     return out
 
 
 def group_smiles(label: str) -> str | None:
-    """The group an alias stands for, read forwards or backwards; None when it is not known."""
+    """The group an alias stands for, read forwards or backwards, also behind CH2 links (CH2OAc,
+    HOCH2); None when it is not known or could mean two groups."""
     text = label.strip()
-    found = _groups().get(text)
-    if found is not None:
-        return found
+    if text in AMBIGUOUS:
+        return None
+    for candidate in _spellings(text):
+        found = _groups().get(candidate)
+        if found is None and candidate.startswith("CH2") and len(candidate) > 3:
+            inner = group_smiles(candidate[3:])  # CH2OAc: a CH2 link, then a known group
+            found = "*C" + inner[1:] if inner is not None and inner.startswith("*") else None
+        if found is not None:
+            return found
+    return None
+
+
+def _spellings(text: str) -> list[str]:
+    """The label as written and read backwards (MeO2C -> CO2Me, HOCH2 -> CH2OH)."""
+    out = [text]
     try:
         parsed = parse_label(text)
     except LabelError:
-        return None
-    backwards = "".join(u.text() for g in reversed(parsed.groups()) for u in g) + parsed.charge
-    return _groups().get(backwards)
+        return out
+    # backwards by the label's units (HOH2C -> CH2OH, MeO2C -> CO2Me), and by atoms with their H
+    # (CH3O -> OCH3, HOCH2 -> CH2OH, AcOCH2 -> CH2OAc): both spellings are in use
+    chunks: list[list] = []
+    for unit in parsed.units:
+        if unit.head == "H" and chunks and isinstance(chunks[-1][-1].head, str) and chunks[-1][-1].head != "H":
+            chunks[-1].append(unit)
+        else:
+            chunks.append([unit])
+    for backwards in (
+        "".join(u.text() for g in reversed(parsed.groups()) for u in g) + parsed.charge,
+        "".join(u.text() for chunk in reversed(chunks) for u in chunk) + parsed.charge,
+    ):
+        if backwards not in out:
+            out.append(backwards)
+    return out
 
 
 def expand_aliases(mol: Chem.Mol, record: str | None = None) -> Chem.Mol:
@@ -56,7 +86,14 @@ def expand_aliases(mol: Chem.Mol, record: str | None = None) -> Chem.Mol:
         label = atom.GetProp("molFileAlias")
         smiles = group_smiles(label)
         if smiles is None:
-            raise InputError(f"atom {idx + 1}: the alias {label!r} is not a group chairdraw knows", record=record)
+            why = (
+                f"it could be {AMBIGUOUS[label.strip()]}"
+                if label.strip() in AMBIGUOUS
+                else "not a group chairdraw knows"
+            )
+            raise InputError(
+                f"atom {idx + 1}: the alias {label!r}: {why}; draw the group's atoms instead", record=record
+            )
         if atom.GetDegree() != 1:
             raise InputError(
                 f"atom {idx + 1}: the alias {label!r} has {atom.GetDegree()} bonds; expected one", record=record

@@ -37,7 +37,8 @@ QUALITY = 12.0  # degrees: beyond this a reading is still made, with a drawing-q
 PARALLEL = 20.0  # degrees: opposite ring bonds of a chair drawing are parallel within this
 MAX_TILT = 45.0  # degrees: a chair turned further than this in the plane has no clear "up"
 MIN_PUCKER = 0.12  # pucker drawn, in mean ring-bond lengths: below it the ring is drawn flat
-MIN_AREA = 0.05  # signed ring area in squared bond lengths: below it the ring is seen edge-on
+MIN_AREA = 0.4  # signed ring area in squared bond lengths: below it (a view from less than about 5° above) the ring is seen nearly edge-on
+TURNED = 30.0  # degrees: a chair turned further in the page is read with a warning
 
 
 @dataclass(frozen=True)
@@ -157,75 +158,146 @@ def _read_ring(mol, ring: ChairRing, xy) -> tuple[RingReading, list[str], dict[i
     """(reading, warnings, faces by substituent atom, reasons by undetermined ring atom)."""
     pts = [xy[a] for a in ring.atoms]
     bond = sum(_dist(pts[k], pts[k - 1]) for k in range(6)) / 6
+
+    def unclear(why: str, tilt: float = 0.0, warnings: list[str] | None = None):
+        return (
+            RingReading(ring.atoms, "unclear", tilt=tilt, reason=why),
+            warnings or [],
+            {},
+            dict.fromkeys(ring.atoms, why),
+        )
+
     if bond < 1e-6:
-        return RingReading(ring.atoms, "unclear", reason="the ring's atoms share one position"), [], {}, {}
-    even = _centroid(pts[0::2])
-    odd = _centroid(pts[1::2])
+        return unclear("the ring's atoms share one position")
+    even, odd = _centroid(pts[0::2]), _centroid(pts[1::2])
     axis = (even[0] - odd[0], even[1] - odd[1])
     pucker = math.hypot(*axis) / bond
     if pucker < MIN_PUCKER:
         return RingReading(ring.atoms, "flat"), [], {}, {}
-    up = (axis[0] / (pucker * bond), axis[1] / (pucker * bond))
-    if up[1] < 0:
-        up = (-up[0], -up[1])
-    tilt = math.degrees(math.atan2(up[0], up[1]))  # positive: turned clockwise
-    numbers = [a + 1 for a in ring.atoms]
-    if abs(tilt) > MAX_TILT:
-        why = f"the chair's axis is turned {abs(tilt):.0f}° from vertical: which way is up cannot be told"
-        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), [], {}, dict.fromkeys(ring.atoms, why)
+    outline = (axis[0] / (pucker * bond), axis[1] / (pucker * bond))
+    if outline[1] < 0:
+        outline = (-outline[0], -outline[1])
     area = _signed_area(pts) / bond**2
     if abs(area) < MIN_AREA:
-        why = "the ring is drawn edge-on: which face the viewer sees cannot be told"
-        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), [], {}, dict.fromkeys(ring.atoms, why)
+        return unclear("the ring is drawn (nearly) edge-on: which face the viewer sees cannot be told")
+    if not _opposite_bonds_parallel(pts):
+        return unclear("opposite ring bonds are not parallel: the ring is not drawn as a chair")
     clockwise = area < 0  # y up, as in a molfile
+    # the axis: the outline's own (exact for a projected chair), else the page's vertical, along
+    # which chemists draw axial bonds (an outline with narrow tips can imply a tilted axis)
+    first_problem = None
+    for up in (outline, (0.0, 1.0)):
+        tilt = math.degrees(math.atan2(up[0], up[1]))  # positive: turned clockwise
+        if abs(tilt) > MAX_TILT:
+            first_problem = (
+                first_problem
+                or f"the chair's axis is turned {abs(tilt):.0f}° from vertical: which way is up cannot be told"
+            )
+            continue
+        v_up, expected = _vs(pts, up, even, odd)
+        problem = _v_problem(v_up, expected)
+        if problem is None:
+            break
+        first_problem = first_problem or problem
+    else:
+        return unclear(first_problem or "not drawn as a chair", math.degrees(math.atan2(outline[0], outline[1])))
+    numbers = [a + 1 for a in ring.atoms]
+    warnings = [
+        f"ring atom {numbers[k]}: "
+        + (
+            "not drawn as a V (one neighbour above it, one below)"
+            if v is None
+            else "its V points the wrong way for a chair"
+        )
+        for k, v in enumerate(v_up)
+        if v != expected[k]
+    ]
+    if up != outline:
+        turned = math.degrees(math.atan2(outline[0], outline[1]))
+        warnings.append(
+            f"the ring's outline implies an axis turned {abs(turned):.0f}°; read with the page's vertical as the axis"
+        )
+    wrong_way = {k for k, v in enumerate(v_up) if v is not None and v != expected[k]}
+    readings, notes = _read_bonds(mol, ring, pts, xy, up, expected, bond)
+    refined = _refined_axis(readings, xy, up)
+    if refined is not None:  # the axis the drawn axial bonds show, if it reads every bond the same way
+        again, again_notes = _read_bonds(mol, ring, pts, xy, refined, expected, bond)
+        if [r.position for r in again] == [r.position for r in readings]:
+            readings, notes, up = again, again_notes, refined
+    tilt = math.degrees(math.atan2(up[0], up[1]))
+    if abs(tilt) > TURNED:
+        warnings.append(f"the chair is turned {abs(tilt):.0f}° in the page: read, but a chair is usually drawn upright")
+    warnings += notes
+    faces: dict[int, str] = {}
+    reasons: dict[int, str] = {}
+    for k, a in enumerate(ring.atoms):
+        here = [r for r in readings if r.ring_atom == a]
+        problem = _atom_problem(numbers[k], here, k not in wrong_way)
+        if problem:
+            reasons[a] = problem
+            continue
+        for r in here:
+            if r.side is not None:
+                faces[r.atom] = TOP if (r.side == "up") == clockwise else BOTTOM
+    points_up = tuple(e == clockwise for e in expected)
+    return RingReading(ring.atoms, "chair", points_up, tuple(readings), tilt), warnings, faces, reasons
+
+
+def _vs(pts, up, even, odd) -> tuple[list[bool | None], list[bool]]:
+    """Per ring atom: its V as drawn (True up, False down, None not a V), and as a chair needs it."""
     heights = [_dot(p, up) for p in pts]
     v_up: list[bool | None] = []
-    warnings: list[str] = []
     for k in range(6):
         h, before, after = heights[k], heights[k - 1], heights[(k + 1) % 6]
         v_up.append(True if h > max(before, after) else False if h < min(before, after) else None)
     expected = [(k % 2 == 0) == (_dot(even, up) > _dot(odd, up)) for k in range(6)]
-    reasons: dict[int, str] = {}
-    wrong_way = []
-    for k in range(6):
-        if v_up[k] is None:  # a steep view: the alternate sets still say which way it points
-            warnings.append(f"ring atom {numbers[k]}: not drawn as a V (one neighbour above it, one below)")
-        elif v_up[k] != expected[k]:
-            warnings.append(f"ring atom {numbers[k]}: its V points the wrong way for a chair")
-            wrong_way.append(k)
-    if not _opposite_bonds_parallel(pts):
-        why = "opposite ring bonds are not parallel: the ring is not drawn as a chair"
-        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), warnings, {}, dict.fromkeys(ring.atoms, why)
+    return v_up, expected
+
+
+def _v_problem(v_up: list[bool | None], expected: list[bool]) -> str | None:
     not_v = [k for k in range(6) if v_up[k] is None]
     if len(not_v) > 2 or (len(not_v) == 2 and (not_v[1] - not_v[0]) != 3):
         # a chair seen from well above loses the V at its two tips, which sit opposite each other;
         # anything else is a boat or twist-boat, or a careless drawing
-        why = f"{len(not_v)} ring atoms are not drawn as Vs: the ring is not drawn as a chair"
-        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), warnings, {}, dict.fromkeys(ring.atoms, why)
-    if len(wrong_way) > 1:
-        why = f"{len(wrong_way)} ring atoms point the wrong way: the ring is not drawn as a chair"
-        return RingReading(ring.atoms, "unclear", tilt=tilt, reason=why), warnings, {}, dict.fromkeys(ring.atoms, why)
+        return f"{len(not_v)} ring atoms are not drawn as Vs: the ring is not drawn as a chair"
+    wrong = sum(1 for k in range(6) if v_up[k] is not None and v_up[k] != expected[k])
+    if wrong > 1:
+        return f"{wrong} ring atoms point the wrong way: the ring is not drawn as a chair"
+    return None
+
+
+def _read_bonds(mol, ring: ChairRing, pts, xy, up, expected, bond) -> tuple[list[BondReading], list[str]]:
     readings: list[BondReading] = []
-    faces: dict[int, str] = {}
+    notes: list[str] = []
     centre = _centroid(pts)
     for k, a in enumerate(ring.atoms):
         if k in ring.trigonal or mol.GetAtomWithIdx(a).GetTotalDegree() < 4:
             continue  # no configuration: C=O, or a ring N with its lone pair (it inverts)
-        exo = _exo(mol, ring, a)
-        here = [_read_bond(a, n, k, pts, xy, up, expected[k], centre, bond) for n in exo]
-        readings += [r for r, _ in here]
-        for _, note in here:
-            warnings += note
-        problem = _atom_problem(numbers[k], [r for r, _ in here], k not in wrong_way)
-        if problem:
-            reasons[a] = problem
-            continue
-        for r, _ in here:
-            if r.side is not None:
-                faces[r.atom] = TOP if (r.side == "up") == clockwise else BOTTOM
-    points_up = tuple(e == clockwise for e in expected)
-    reading = RingReading(ring.atoms, "chair", points_up, tuple(readings), tilt)
-    return reading, warnings, faces, reasons
+        for n in _exo(mol, ring, a):
+            reading, note = _read_bond(a, n, k, pts, xy, up, expected[k], centre, bond)
+            readings.append(reading)
+            notes += note
+    return readings, notes
+
+
+def _refined_axis(readings: list[BondReading], xy, up) -> tuple[float, float] | None:
+    """The mean direction of the bonds read as axial (two at least), when it differs from ``up``."""
+    axial = [r for r in readings if r.position == AXIAL]
+    if len(axial) < 2:
+        return None
+    sx = sy = 0.0
+    for r in axial:
+        v = _unit(xy[r.atom], xy[r.ring_atom])
+        sign = 1.0 if _dot(v, up) > 0 else -1.0
+        sx, sy = sx + sign * v[0], sy + sign * v[1]
+    norm = math.hypot(sx, sy)
+    if norm < 1e-9:
+        return None
+    refined = (sx / norm, sy / norm)
+    # only axial bonds drawn parallel to each other say where the axis is; if they disagree, one
+    # of them is skewed, and the outline's axis stays the judge (and names the skewed bond)
+    spread = max(_line_angle(_unit(xy[r.atom], xy[r.ring_atom]), refined) for r in axial)
+    return refined if spread <= 3.0 and _line_angle(refined, up) > 1.0 else None
 
 
 def _read_bond(ring_atom, atom, k, pts, xy, up, v_is_up, centre, bond) -> tuple[BondReading, list[str]]:
@@ -263,6 +335,7 @@ def _read_bond(ring_atom, atom, k, pts, xy, up, v_is_up, centre, bond) -> tuple[
             notes.append(f"{what}: equatorial bond {off_eq:.0f}° off parallel to its ring bonds")
         if (p[0] - centre[0]) * v[0] + (p[1] - centre[1]) * v[1] < 0:
             notes.append(f"{what}: equatorial bond drawn into the ring")
+            side, problem = None, "inward"
     elif off_ray >= 180.0 - TOLERANCE:
         position, own, other, side, problem = UNDETERMINED, off_axis, off_eq, None, "against"
         notes.append(f"{what} is drawn axial but points against the atom's V")
@@ -294,6 +367,8 @@ def _atom_problem(number: int, here: list[BondReading], v_ok: bool) -> str | Non
         bad = unclear[0]
         if bad.problem == "against":
             return f"ring atom {number}: the bond to atom {bad.atom + 1} is drawn axial but against the atom's V"
+        if bad.problem == "inward":
+            return f"ring atom {number}: the bond to atom {bad.atom + 1} is drawn into the ring"
         return f"ring atom {number}: the bond to atom {bad.atom + 1} is neither clearly axial nor clearly equatorial"
     if len(here) == 2:
         if here[0].position == here[1].position:

@@ -342,7 +342,8 @@ def read_molblock(block: str, source: str = _ARGUMENT, record: str | None = None
     if "V3000" in counts:
         flag = molcheck.v3000_chiral_flag(molpart)
     else:
-        flag = 1 if counts[12:15].strip() == "1" else 0
+        field = counts[12:15].strip()  # a short counts line has no chiral flag at all: not "relative"
+        flag = None if not field else 1 if field == "1" else 0
     notes = []
     if mol.GetNumConformers() and mol.GetConformer().Is3D():
         notes.append("3D coordinates: stereo was taken from the geometry")

@@ -118,19 +118,27 @@ class Checker:
             raise exc.with_record(record) from None
 
     def _check(self, drawn: Structure, reg: Structure) -> CheckResult:
+        if drawn.mol.GetNumAtoms() == 0:
+            raise InputError("the drawing has no atoms", record=drawn.label)
         mol = expand_aliases(drawn.mol, drawn.label)
-        meaning = reg.stereo_meaning
+        meaning = reg.stereo_meaning if _specified_centres(_heavy(reg.mol)) or _stereo_bonds(reg.mol) else "none"
         if not mol.GetNumConformers():
             raise InputError("the drawing has no coordinates: give a molfile or SDF record", record=drawn.label)
         if mol.GetConformer().Is3D():
             seen = None  # 3D coordinates: RDKit already took the stereo from the geometry
-            drawn_mol = mol
+            drawn_mol = Chem.Mol(mol)
+            drawn_mol.RemoveAllConformers()  # else InChI reads the geometry again and ignores any change of tags
         else:
             seen = perceive(mol)
             drawn_mol = seen.mol
-        warnings = tuple(seen.warnings if seen else ()) + drawn.notes
+        warnings = (
+            tuple(seen.warnings if seen else ())
+            + drawn.notes
+            + tuple(f"registered structure: {note}" for note in reg.notes)
+        )
         d_heavy = _heavy(drawn_mol)
         r_heavy = _heavy(reg.mol)
+        r_heavy.RemoveAllConformers()
         d_inchi = _rdkit.standard_inchi(d_heavy)
         r_inchi = _rdkit.standard_inchi(r_heavy)
 
@@ -139,6 +147,12 @@ class Checker:
                 verdict, reason, tuple(diffs), favored, warnings, meaning, d_inchi, r_inchi, seen, drawn.record
             )
 
+        if not d_inchi or not r_inchi:
+            which = "the drawing" if not d_inchi else "the registered structure"
+            return result(
+                "undetermined",
+                f"InChI cannot represent {which} (an R group, a dummy atom or an odd valence): no identity to compare",
+            )
         if _constitution(d_heavy) != _constitution(r_heavy):
             return result("different-compound", "the drawing and the registered structure differ in constitution")
         if seen is not None and not seen.rings:
@@ -155,6 +169,7 @@ class Checker:
         variants = _variants(reg, r_heavy)
         matches = _matches(r_heavy, d_heavy)
         missing = _unread_centres(r_heavy, d_heavy, matches, seen, _heavy_index(drawn_mol))
+        missing += _unread_bonds(r_heavy, d_heavy, matches, _heavy_index(drawn_mol))
         favored = _favored(self.analyzer, drawn_mol, seen)
         if missing:
             return result("undetermined", "; ".join(missing), favored=favored)
@@ -162,6 +177,8 @@ class Checker:
         ids = {_rdkit.standard_inchi(v) for v in variants}
         if _rdkit.standard_inchi(restricted) in ids:
             reason = "the drawing shows the registered stereoisomer"
+            if meaning == "none":
+                reason = "the drawing shows the registered compound (the registration has no stereo: only the constitution was compared)"
             opened = _opened(d_heavy, r_heavy, matches)
             if opened:
                 reason += f" (the registration leaves {opened} centre(s) open that the drawing sets: not compared)"
@@ -220,22 +237,47 @@ def _has_tags(mol: Chem.Mol) -> bool:
     return any(a.GetChiralTag() in (CW, CCW) for a in mol.GetAtoms())
 
 
-def _specified_centres(mol: Chem.Mol) -> list[int]:
+def _specified(mol: Chem.Mol, kind) -> list[int]:
+    """Atoms (tetrahedral) or bonds (double) whose configuration the structure specifies."""
     info = Chem.FindPotentialStereo(mol)
     return [
-        i.centeredOn
-        for i in _rdkit.items(info)
-        if i.type == Chem.StereoType.Atom_Tetrahedral and i.specified == Chem.StereoSpecified.Specified
+        i.centeredOn for i in _rdkit.items(info) if i.type == kind and i.specified == Chem.StereoSpecified.Specified
     ]
+
+
+def _specified_centres(mol: Chem.Mol) -> list[int]:
+    return _specified(mol, Chem.StereoType.Atom_Tetrahedral)
+
+
+def _stereo_bonds(mol: Chem.Mol) -> list[int]:
+    return _specified(mol, Chem.StereoType.Bond_Double)
+
+
+def _unread_bonds(reg: Chem.Mol, drawn: Chem.Mol, matches, index: dict[int, int]) -> list[str]:
+    """Registered E/Z double bonds that the drawing leaves open (drawn crossed, or 'either')."""
+    if not matches:
+        return []
+    drawn_set = set(_stereo_bonds(drawn))
+    out = []
+    for b in _stereo_bonds(reg):
+        bond = reg.GetBondWithIdx(b)
+        i, j = matches[0].get(bond.GetBeginAtomIdx(), -1), matches[0].get(bond.GetEndAtomIdx(), -1)
+        other = drawn.GetBondBetweenAtoms(i, j) if min(i, j) >= 0 else None
+        if other is not None and other.GetIdx() not in drawn_set:
+            out.append(
+                f"the double bond between atoms {index.get(i, i) + 1} and {index.get(j, j) + 1} is drawn without"
+                " a geometry (crossed or 'either'), but the registration sets its E/Z"
+            )
+    return out
 
 
 def _variants(reg: Structure, mol: Chem.Mol) -> list[Chem.Mol]:
     """The registered structure and every stereoisomer its registration counts as the same."""
-    groups = [g.atoms for g in reg.stereo_groups if g.kind in ("and", "or")]
-    if reg.stereo_meaning == "relative" and not groups:
-        groups = [tuple(_specified_centres(mol))]
     _, new = _rdkit.without_hs(reg.mol)
-    groups = [tuple(new[a] for a in g if a in new) for g in groups]
+    # stereo groups hold the input's atom numbers; ``mol`` is the heavy-atom copy
+    groups = [tuple(new[a] for a in g.atoms if a in new) for g in reg.stereo_groups if g.kind in ("and", "or")]
+    if reg.stereo_meaning == "relative" and not groups:
+        groups = [tuple(_specified_centres(mol))]  # already heavy-atom numbers
     out = []
     for flips in itertools.product((False, True), repeat=len(groups)):
         variant = Chem.Mol(mol)
@@ -248,9 +290,26 @@ def _variants(reg: Structure, mol: Chem.Mol) -> list[Chem.Mol]:
     return out
 
 
-def _matches(reg: Chem.Mol, drawn: Chem.Mol) -> list[tuple[int, ...]]:
-    found = drawn.GetSubstructMatches(reg, useChirality=False, uniquify=False, maxMatches=2000)
-    return list(found)  # empty when InChI's normalisation (tautomers, charges) is all that equates them
+MAX_MATCHES = 20000
+
+
+def _matches(reg: Chem.Mol, drawn: Chem.Mol) -> list[dict[int, int]]:
+    """Every mapping of the registered structure's atoms onto the drawing's that can matter.
+
+    End atoms that touch no stereocentre (the methyls of a TMS or tBu group, the O of a nitro
+    group) are left out of the query: their permutations multiply the mappings (6^5 for a penta-
+    TMS ether) without changing any centre's configuration, and a cap on the number of mappings
+    would otherwise cut off the one with the fewest differences. Empty when only InChI's
+    normalisation (tautomers, charges) equates the two."""
+    centres = set(_specified_centres(reg))
+    keep = [
+        a.GetIdx() for a in reg.GetAtoms() if a.GetDegree() != 1 or any(n.GetIdx() in centres for n in a.GetNeighbors())
+    ]
+    query = Chem.RWMol(reg)
+    for idx in sorted(set(range(reg.GetNumAtoms())) - set(keep), reverse=True):
+        query.RemoveAtom(idx)
+    found = drawn.GetSubstructMatches(query.GetMol(), useChirality=False, uniquify=False, maxMatches=MAX_MATCHES)
+    return [dict(zip(keep, m)) for m in found]
 
 
 def _unread_centres(reg, drawn, matches, seen: Perception | None, index: dict[int, int]) -> list[str]:
@@ -278,7 +337,19 @@ def _restricted(drawn: Chem.Mol, reg: Chem.Mol, matches) -> Chem.Mol:
     if not matches:
         return out
     for c in open_centres:
-        out.GetAtomWithIdx(matches[0][c]).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+        if c in matches[0]:
+            out.GetAtomWithIdx(matches[0][c]).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+    set_bonds = set(_stereo_bonds(reg))
+    for bond in reg.GetBonds():  # a double bond the registration leaves open is not compared either
+        if bond.GetBondType() != Chem.BondType.DOUBLE or bond.GetIdx() in set_bonds:
+            continue
+        ends = matches[0].get(bond.GetBeginAtomIdx()), matches[0].get(bond.GetEndAtomIdx())
+        other = out.GetBondBetweenAtoms(*ends) if None not in ends else None
+        if other is not None and other.GetStereo() != Chem.BondStereo.STEREONONE:
+            other.SetStereo(Chem.BondStereo.STEREONONE)
+            for a in (other.GetBeginAtom(), other.GetEndAtom()):
+                for b in a.GetBonds():
+                    b.SetBondDir(Chem.BondDir.NONE)
     return out
 
 
@@ -290,9 +361,11 @@ def _opened(drawn: Chem.Mol, reg: Chem.Mol, matches) -> int:
     return len(set(_specified_centres(drawn)) - registered)
 
 
-def _same_configuration(reg: Chem.Mol, drawn: Chem.Mol, match: tuple[int, ...], centre: int) -> bool | None:
+def _same_configuration(reg: Chem.Mol, drawn: Chem.Mol, match: dict[int, int], centre: int) -> bool | None:
     a, b = reg.GetAtomWithIdx(centre), drawn.GetAtomWithIdx(match[centre])
     if a.GetChiralTag() not in (CW, CCW) or b.GetChiralTag() not in (CW, CCW):
+        return None
+    if any(n.GetIdx() not in match for n in a.GetNeighbors()):
         return None
     mapped = [match[n.GetIdx()] for n in a.GetNeighbors()] + ["H"] * a.GetTotalNumHs()
     order = [n.GetIdx() for n in b.GetNeighbors()] + ["H"] * b.GetTotalNumHs()
@@ -305,13 +378,14 @@ def _same_configuration(reg: Chem.Mol, drawn: Chem.Mol, match: tuple[int, ...], 
 def _differences(
     variants, drawn: Chem.Mol, matches, drawn_mol: Chem.Mol, reg_index: dict[int, int]
 ) -> list[CentreDifference]:
-    best: tuple[int, list[int], Chem.Mol, tuple[int, ...]] | None = None
+    best: tuple[tuple[int, list[int]], list[int], Chem.Mol, dict[int, int]] | None = None
     for variant in variants:
         centres = _specified_centres(variant)
         for match in matches:
             diff = [c for c in centres if _same_configuration(variant, drawn, match, c) is False]
-            if best is None or len(diff) < best[0]:
-                best = (len(diff), diff, variant, match)
+            key = (len(diff), sorted(diff))  # fewest differences; among equals the lowest atoms, whatever the drawing
+            if best is None or key < best[0]:
+                best = (key, diff, variant, match)
     if best is None:
         return []
     _, diff, variant, match = best
@@ -346,8 +420,8 @@ def _double_bond_differences(reg: Chem.Mol, drawn: Chem.Mol, matches, drawn_mol:
     for bond in a.GetBonds():
         if not bond.HasProp("_CIPCode"):
             continue
-        i, j = matches[0][bond.GetBeginAtomIdx()], matches[0][bond.GetEndAtomIdx()]
-        other = b.GetBondBetweenAtoms(i, j)
+        i, j = matches[0].get(bond.GetBeginAtomIdx(), -1), matches[0].get(bond.GetEndAtomIdx(), -1)
+        other = b.GetBondBetweenAtoms(i, j) if min(i, j) >= 0 else None
         drawn_label = other.GetProp("_CIPCode") if other is not None and other.HasProp("_CIPCode") else None
         if drawn_label != bond.GetProp("_CIPCode"):
             out.append(

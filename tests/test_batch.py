@@ -205,7 +205,9 @@ def test_checking_against_a_registry(tmp_path):
     from chairdraw.demo import demo_drawings, demo_registry
 
     sdf = tmp_path / "drawings.sdf"
-    sdf.write_text("".join(block + ("" if block.endswith("\n") else "\n") + "$$$$\n" for _, block, _ in demo_drawings()))
+    sdf.write_text(
+        "".join(block + ("" if block.endswith("\n") else "\n") + "$$$$\n" for _, block, _ in demo_drawings())
+    )
     registry = tmp_path / "registry.csv"
     entries = {k: v for k, v in demo_registry().items() if k != "WLW-0152"}  # one drawing left unregistered
     registry.write_text("id,smiles\n" + "".join(f"{k},{v}\n" for k, v in entries.items()))

@@ -78,8 +78,6 @@ def _mirrored(block: str) -> str:
 def _ring_centres(block: str) -> list[int]:
     """Ring atoms with two drawn exocyclic bonds (group and H), by index."""
     mol = Chem.MolFromMolBlock(block, removeHs=False)
-    ring = chairdraw.read(block).mol
-    del ring
     info = mol.GetRingInfo()
     out = []
     for r in info.AtomRings():
@@ -136,6 +134,12 @@ def test_our_chair_molfiles_match_and_their_mirror_images_are_enantiomers(smiles
     assert check(_mirrored(block), smiles).verdict == ("enantiomer" if chiral else "match")
 
 
+def _inverted_at(smiles: str, atom: int) -> str:
+    mol = Chem.MolFromSmiles(smiles)
+    mol.GetAtomWithIdx(atom).InvertChirality()
+    return _inchi(mol)
+
+
 @pytest.mark.parametrize("smiles", NAMED[:6])
 def test_swapping_two_groups_on_one_centre_is_a_diastereomer_at_that_centre(smiles):
     block = chair_molblock(chairdraw.analyze(smiles))
@@ -143,15 +147,16 @@ def test_swapping_two_groups_on_one_centre_is_a_diastereomer_at_that_centre(smil
     assert centres
     for atom in centres:
         result = check(_swapped(block, atom), smiles)
-        expected = _inchi(smiles) != _inchi(Chem.MolFromMolBlock(_swapped(block, atom)))  # sanity: not wedged
-        assert expected
         assert result.verdict == "diastereomer", (atom, result.reason)
-        assert [c.registered_atom for c in result.differing_centers] == [atom + 1]
-        centre = result.differing_centers[0]
+        (named,) = result.differing_centers
+        # the drawing is the registered compound with this centre inverted; the centre named must
+        # be one whose inversion gives the same compound (RDKit's InChI decides: in a 1,4-ring
+        # inverting C1 or C4 gives the same isomer)
+        assert _inverted_at(smiles, named.registered_atom - 1) == _inverted_at(smiles, atom)
         labels = dict(Chem.FindMolChiralCenters(Chem.MolFromSmiles(smiles), useLegacyImplementation=False))
-        if atom in labels and labels[atom] in "RS":  # RDKit's CIP label of the registered centre
-            assert centre.registered_cip == labels[atom]
-            assert centre.drawn_cip == {"R": "S", "S": "R"}[labels[atom]]
+        if named.registered_atom - 1 == atom and labels.get(atom) in ("R", "S"):  # RDKit's CIP label
+            assert named.registered_cip == labels[atom]
+            assert named.drawn_cip == {"R": "S", "S": "R"}[labels[atom]]
 
 
 @settings(max_examples=150, deadline=None, suppress_health_check=[HealthCheck.filter_too_much])
@@ -331,7 +336,7 @@ def test_fused_rings_drawn_as_chairs(smiles, name, readable):
         for _ in range(3):
             mirrored = rnd.random() < 0.5
             block = _projected(
-                mol, cid, ring, rnd.uniform(-10, 10) + 60 * rnd.randrange(6), rnd.uniform(8, 14),
+                mol, cid, ring, rnd.uniform(-10, 10) + 60 * rnd.randrange(6), rnd.uniform(12, 18),
                 rnd.uniform(-20, 20), mirrored, rnd.random() < 0.5, wedged,
             )  # fmt: skip
             registered = _mirror_image(smiles) if mirrored else Chem.MolFromSmiles(smiles)
@@ -597,3 +602,83 @@ def test_centres_are_numbered_as_in_a_registered_molfile_with_h_atoms():
     file_atom = registered.GetAtomWithIdx(centre.registered_atom - 1)
     assert file_atom.GetSymbol() == "C" and file_atom.GetDegree() == 4  # a ring CH, numbered as in the file
     assert centre.locant in ("1", "4")
+
+
+def test_alias_spellings_table_rows_are_groups():
+    from chairdraw.energy import tables
+
+    for label, group in tables.alias_spellings():
+        assert group.startswith("*") and Chem.MolFromSmiles(group) is not None, label
+    for written, same_as in [
+        ("CH3O", "OMe"),
+        ("HOCH2", "CH2OH"),
+        ("AcOCH2", "CH2OAc"),
+        ("H3CO", "OMe"),
+        ("t-Bu", "tBu"),
+    ]:
+        assert group_smiles(written) is not None and group_smiles(written) == group_smiles(same_as), written
+    with pytest.raises(chairdraw.ChairdrawError, match="nitrile"):
+        mol = Chem.RWMol(Chem.MolFromSmiles("C1CCCCC1*"))
+        mol.GetAtomWithIdx(6).SetProp("molFileAlias", "NC")
+        rdDepictor.Compute2DCoords(mol)
+        check(Chem.MolToMolBlock(mol), "N#CC1CCCCC1")
+
+
+def test_chiral_relative_molfile_registration_with_h_atoms_first():
+    """trans-1,2-dimethylcyclohexane registered as a molfile with chiral flag 0 (relative) and its
+    H atoms listed first: a drawing of either enantiomer matches, the cis isomer does not."""
+    trans = "C[C@@H]1CCCC[C@H]1C"
+    reg = Chem.AddHs(Chem.MolFromSmiles(trans))
+    order = [a.GetIdx() for a in reg.GetAtoms() if a.GetAtomicNum() == 1]
+    order += [a.GetIdx() for a in reg.GetAtoms() if a.GetAtomicNum() != 1]
+    reg = Chem.RenumberAtoms(reg, order)
+    rdDepictor.Compute2DCoords(reg)
+    block = Chem.MolToMolBlock(reg)
+    assert block.splitlines()[3][12:15].strip() == "0"  # RDKit writes chiral flag 0: relative
+    drawing = chair_molblock(chairdraw.analyze(trans))
+    assert check(drawing, block).verdict == "match"
+    assert check(_mirrored(drawing), block).verdict == "match"
+    cis = chair_molblock(chairdraw.analyze("C[C@@H]1CCCC[C@@H]1C"))
+    assert check(cis, block).verdict == "diastereomer"
+
+
+def test_inchi_less_structures_are_undetermined_not_matched():
+    block = chair_molblock(chairdraw.analyze("C[C@H]1CC[C@@H](O)CC1"))
+    mol = Chem.MolFromMolBlock(block, removeHs=False)
+    oxygen = next(a.GetIdx() for a in mol.GetAtoms() if a.GetSymbol() == "O")
+    mol.GetAtomWithIdx(oxygen).SetAtomicNum(0)  # an R group where the OH was
+    result = check(_plain_block(mol), "C[C@H]1CC[C@@H](*)CC1")
+    assert result.verdict == "undetermined" and "InChI" in result.reason
+
+
+def test_a_3d_molfile_drawing_is_compared_through_its_geometry():
+    smiles = "CC(C)[C@@H]1CC[C@@H](C)C[C@H]1O"
+    mol, chairs, _ = _chairs(smiles)
+    block = Chem.MolToMolBlock(Chem.Mol(mol, confId=chairs[0]))
+    assert check(block, smiles).verdict == "match"
+    assert check(block, _mirror_image(smiles)).verdict == "enantiomer"
+    assert check(block, "CC(C)[C@@H]1CCC(C)C[C@H]1O").verdict == "match"  # an open centre is not compared
+
+
+def test_nearly_edge_on_chairs_are_not_read():
+    smiles = "CC(C)[C@@H]1CC[C@@H](C)C[C@H]1O"
+    mol, chairs, ring = _chairs(smiles)
+    for elevation in (-1.5, 1.0, 2.0, 4.0):
+        result = check(_projected(mol, chairs[0], ring, 0, elevation, 0, False, True), smiles)
+        assert result.verdict == "undetermined" and "edge-on" in result.reason, (elevation, result.reason)
+    assert check(_projected(mol, chairs[0], ring, 0, 10, 0, False, True), smiles).verdict == "match"
+
+
+def test_penta_silyl_ether_names_the_one_centre_that_differs():
+    """Many equivalent end atoms (TMS methyls): the mapping with the fewest differences is still
+    found. The drawing is the registered compound with one centre inverted (by construction)."""
+    tms = "O[Si](C)(C)C"
+    smiles = f"{tms}[C@H]1[C@H]({tms})[C@@H]({tms})[C@H]({tms})[C@@H]({tms})C1"
+    smiles = smiles.replace("O[Si](C)(C)C[C@H]1", "C[Si](C)(C)O[C@H]1", 1)
+    analysis = chairdraw.analyze(smiles)
+    block = chair_molblock(analysis)
+    centre = _ring_centres(block)[0]
+    result = check(_swapped(block, centre), smiles)
+    assert result.verdict == "diastereomer"
+    (named,) = result.differing_centers
+    assert _inverted_at(smiles, named.registered_atom - 1) == _inverted_at(smiles, centre)

@@ -141,6 +141,12 @@ def drawing_labels() -> tuple[tuple[str, str], ...]:
 
 
 @cache
+def alias_spellings() -> tuple[tuple[str, str], ...]:
+    """(alias, group SMILES) of aliases.txt: other spellings of groups, for reading drawings."""
+    return tuple((r["label"], r["group"]) for _, r in _rows("aliases.txt"))
+
+
+@cache
 def pair_terms() -> tuple[PairTerm, ...]:
     known = sources()
     out = []
