@@ -227,23 +227,23 @@ def _no_formula(value):
 
 
 def write_pdf(folder: str | os.PathLike) -> None:
-    """figures.pdf: the figure of every ok record, one per page, in input order."""
-    from pypdf import PdfWriter
+    """figures.pdf: the figure of every ok record, one per page, in input order (written page by
+    page: render/pdfset.py)."""
+    from .render.pdfset import write_pdf_set
 
     folder = Path(folder)
-    writer = PdfWriter()
-    pages = 0
-    for row in rows_of(folder):
-        page = dict(row.files).get("page")
-        if page and (folder / page).is_file():
-            writer.append(str(folder / page))
-            pages += 1
+
+    def pages() -> Iterator[Path]:
+        for row in rows_of(folder):
+            page = dict(row.files).get("page")
+            if page and (folder / page).is_file():
+                yield folder / page
+
     part = folder / "figures.pdf.part"
-    if pages:
-        with open(part, "wb") as handle:
-            writer.write(handle)
+    if write_pdf_set(pages(), part):
         os.replace(part, folder / "figures.pdf")
-    writer.close()
+    else:
+        part.unlink()
 
 
 def write_index(folder: str | os.PathLike) -> None:

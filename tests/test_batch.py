@@ -245,3 +245,23 @@ def test_cli_batch(tmp_path, capsys):
     assert main(["batch", str(tmp_path / "missing.smi"), "--out", str(tmp_path / "o")]) == 2
     assert main(["batch", str(tmp_path / "two.txt"), "--out", str(tmp_path / "o")]) == 2
     assert "kind" in capsys.readouterr().err
+
+
+def test_the_figure_set_renders_each_page_as_its_own_pdf(tmp_path):
+    """figures.pdf is written by our page copier: PDFium (an independent renderer) must draw
+    every page exactly as it draws the record's own PDF."""
+    import pypdfium2 as pdfium
+
+    from chairdraw.render.pdfset import write_pdf_set
+
+    smi = tmp_path / "nci.smi"
+    smi.write_text("\n".join(_nci(12)) + "\n")
+    run_batch(smi, tmp_path / "out", BatchOptions(formats=("pdf",)), jobs=1)
+    pages = [tmp_path / "out" / r["files"]["pdf"] for r in _rows(tmp_path / "out") if r["status"] == "ok"]
+    assert len(pages) >= 6
+    merged = pdfium.PdfDocument(str(tmp_path / "out" / "figures.pdf"))
+    assert len(merged) == len(pages) == len(PdfReader(str(tmp_path / "out" / "figures.pdf"), strict=True).pages)
+    for k, page in enumerate(pages):
+        own = pdfium.PdfDocument(str(page))[0].render(scale=1).to_pil()
+        assert merged[k].render(scale=1).to_pil().tobytes() == own.tobytes(), page.name
+    assert write_pdf_set([], tmp_path / "empty.pdf") == 0
