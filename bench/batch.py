@@ -65,9 +65,9 @@ def baseline(lines: list[str]) -> float:
     return time.perf_counter() - start
 
 
-def timed_batch(path: str, folder: str, formats: tuple[str, ...], jobs: int) -> float:
+def timed_batch(path: str, folder: str, formats: tuple[str, ...], jobs: int, pages: bool = True) -> float:
     start = time.perf_counter()
-    run_batch(path, folder, BatchOptions(formats=formats), jobs=jobs)
+    run_batch(path, folder, BatchOptions(formats=formats, pages=pages), jobs=jobs)
     return time.perf_counter() - start
 
 
@@ -98,11 +98,17 @@ def main(argv=None) -> int:
         base = baseline(small)
         one = timed_batch(path, os.path.join(tmp, "j1"), ("svg",), 1)
         two = timed_batch(path, os.path.join(tmp, "j2"), ("svg",), 2)
+        bare = timed_batch(path, os.path.join(tmp, "j1b"), ("svg",), 1, pages=False)
         n = len(small)
         print(f"{n} records from the NCI sample (stereoisomers enumerated)")
         print(f"  RDKit flat SVG            {base / n * 1000:8.2f} ms per record")
-        print(f"  chairdraw batch --jobs 1  {one / n * 1000:8.2f} ms per record   ratio {one / base:5.2f} x (target <= 1.0)")
-        print(f"  chairdraw batch --jobs 2  {two / n * 1000:8.2f} ms per record   speed-up {one / two:4.2f} x over --jobs 1")
+        print(
+            f"  chairdraw batch --jobs 1  {one / n * 1000:8.2f} ms per record   ratio {one / base:5.2f} x (target <= 1.0)"
+        )
+        print(
+            f"  chairdraw batch --jobs 2  {two / n * 1000:8.2f} ms per record   speed-up {one / two:4.2f} x over --jobs 1"
+        )
+        print(f"  --jobs 1 --no-figures-pdf {bare / n * 1000:8.2f} ms per record   ratio {bare / base:5.2f} x")
         sub = os.path.join(tmp, "subset.smi")
         with open(sub, "w") as handle:
             handle.write("\n".join(small[: args.subset]) + "\n")
@@ -114,7 +120,9 @@ def main(argv=None) -> int:
             handle.write("\n".join(lines[: args.big]) + "\n")
         m_small = peak_memory_mb(path, os.path.join(tmp, "m1"))
         m_big = peak_memory_mb(big, os.path.join(tmp, "m2"))
-        print(f"  peak memory --jobs 1: {m_small:6.0f} MB at {n} records, {m_big:6.0f} MB at {min(len(lines), args.big)} records")
+        print(
+            f"  peak memory --jobs 1: {m_small:6.0f} MB at {n} records, {m_big:6.0f} MB at {min(len(lines), args.big)} records"
+        )
     return 0
 
 

@@ -138,7 +138,8 @@ def run_batch(
         if index is not None:
             index.close()
     write_csv(folder)
-    write_pdf(folder)
+    if options.pages:
+        write_pdf(folder)
     write_index(folder)
     return Summary(n, dict(by_status), dict(by_verdict), time.perf_counter() - started, reused, str(folder), failed)
 

@@ -263,6 +263,7 @@ def _batch(args) -> int:
         timeout=args.timeout,
         chairs=args.chair,
         show_flat=args.show_flat,
+        pages=not args.no_figures_pdf,
     )
     progress = None if args.quiet else _Progress(sys.stderr)
     summary = run_batch(
