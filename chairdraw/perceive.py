@@ -28,13 +28,13 @@ from rdkit import Chem
 
 from .errors import StereoError
 from .faces import BOTTOM, TOP, forget_stereo_perception, ring_slots, set_faces
+from .plane import centroid, dist, dot, line_angle, opposite_bonds_parallel, signed_area, unit
 from .rings import ChairRing, find_rings
 
 AXIAL, EQUATORIAL, UNDETERMINED = "axial", "equatorial", "undetermined"
 TOLERANCE = 25.0  # degrees: a bond this close to the axis or to its equatorial reference reads as such
 MARGIN = 15.0  # degrees: ... and it must be this much closer to one than to the other
 QUALITY = 12.0  # degrees: beyond this a reading is still made, with a drawing-quality warning
-PARALLEL = 20.0  # degrees: opposite ring bonds of a chair drawing are parallel within this
 MAX_TILT = 45.0  # degrees: a chair turned further than this in the plane has no clear "up"
 MIN_PUCKER = 0.12  # pucker drawn, in mean ring-bond lengths: below it the ring is drawn flat
 MIN_AREA = 0.4  # signed ring area in squared bond lengths: below it (a view from less than about 5° above) the ring is seen nearly edge-on
@@ -157,7 +157,7 @@ def _exo(mol: Chem.Mol, ring: ChairRing, atom: int) -> list[int]:
 def _read_ring(mol, ring: ChairRing, xy) -> tuple[RingReading, list[str], dict[int, str], dict[int, str]]:
     """(reading, warnings, faces by substituent atom, reasons by undetermined ring atom)."""
     pts = [xy[a] for a in ring.atoms]
-    bond = sum(_dist(pts[k], pts[k - 1]) for k in range(6)) / 6
+    bond = sum(dist(pts[k], pts[k - 1]) for k in range(6)) / 6
 
     def unclear(why: str, tilt: float = 0.0, warnings: list[str] | None = None):
         return (
@@ -169,7 +169,7 @@ def _read_ring(mol, ring: ChairRing, xy) -> tuple[RingReading, list[str], dict[i
 
     if bond < 1e-6:
         return unclear("the ring's atoms share one position")
-    even, odd = _centroid(pts[0::2]), _centroid(pts[1::2])
+    even, odd = centroid(pts[0::2]), centroid(pts[1::2])
     axis = (even[0] - odd[0], even[1] - odd[1])
     pucker = math.hypot(*axis) / bond
     if pucker < MIN_PUCKER:
@@ -177,10 +177,10 @@ def _read_ring(mol, ring: ChairRing, xy) -> tuple[RingReading, list[str], dict[i
     outline = (axis[0] / (pucker * bond), axis[1] / (pucker * bond))
     if outline[1] < 0:
         outline = (-outline[0], -outline[1])
-    area = _signed_area(pts) / bond**2
+    area = signed_area(pts) / bond**2
     if abs(area) < MIN_AREA:
         return unclear("the ring is drawn (nearly) edge-on: which face the viewer sees cannot be told")
-    if not _opposite_bonds_parallel(pts):
+    if not opposite_bonds_parallel(pts):
         return unclear("opposite ring bonds are not parallel: the ring is not drawn as a chair")
     clockwise = area < 0  # y up, as in a molfile
     # the axis: the outline's own (exact for a projected chair), else the page's vertical, along
@@ -245,12 +245,12 @@ def _read_ring(mol, ring: ChairRing, xy) -> tuple[RingReading, list[str], dict[i
 
 def _vs(pts, up, even, odd) -> tuple[list[bool | None], list[bool]]:
     """Per ring atom: its V as drawn (True up, False down, None not a V), and as a chair needs it."""
-    heights = [_dot(p, up) for p in pts]
+    heights = [dot(p, up) for p in pts]
     v_up: list[bool | None] = []
     for k in range(6):
         h, before, after = heights[k], heights[k - 1], heights[(k + 1) % 6]
         v_up.append(True if h > max(before, after) else False if h < min(before, after) else None)
-    expected = [(k % 2 == 0) == (_dot(even, up) > _dot(odd, up)) for k in range(6)]
+    expected = [(k % 2 == 0) == (dot(even, up) > dot(odd, up)) for k in range(6)]
     return v_up, expected
 
 
@@ -269,7 +269,7 @@ def _v_problem(v_up: list[bool | None], expected: list[bool]) -> str | None:
 def _read_bonds(mol, ring: ChairRing, pts, xy, up, expected, bond) -> tuple[list[BondReading], list[str]]:
     readings: list[BondReading] = []
     notes: list[str] = []
-    centre = _centroid(pts)
+    centre = centroid(pts)
     for k, a in enumerate(ring.atoms):
         if k in ring.trigonal or mol.GetAtomWithIdx(a).GetTotalDegree() < 4:
             continue  # no configuration: C=O, or a ring N with its lone pair (it inverts)
@@ -287,8 +287,8 @@ def _refined_axis(readings: list[BondReading], xy, up) -> tuple[float, float] | 
         return None
     sx = sy = 0.0
     for r in axial:
-        v = _unit(xy[r.atom], xy[r.ring_atom])
-        sign = 1.0 if _dot(v, up) > 0 else -1.0
+        v = unit(xy[r.atom], xy[r.ring_atom])
+        sign = 1.0 if dot(v, up) > 0 else -1.0
         sx, sy = sx + sign * v[0], sy + sign * v[1]
     norm = math.hypot(sx, sy)
     if norm < 1e-9:
@@ -296,8 +296,8 @@ def _refined_axis(readings: list[BondReading], xy, up) -> tuple[float, float] | 
     refined = (sx / norm, sy / norm)
     # only axial bonds drawn parallel to each other say where the axis is; if they disagree, one
     # of them is skewed, and the outline's axis stays the judge (and names the skewed bond)
-    spread = max(_line_angle(_unit(xy[r.atom], xy[r.ring_atom]), refined) for r in axial)
-    return refined if spread <= 3.0 and _line_angle(refined, up) > 1.0 else None
+    spread = max(line_angle(unit(xy[r.atom], xy[r.ring_atom]), refined) for r in axial)
+    return refined if spread <= 3.0 and line_angle(refined, up) > 1.0 else None
 
 
 def _read_bond(ring_atom, atom, k, pts, xy, up, v_is_up, centre, bond) -> tuple[BondReading, list[str]]:
@@ -312,13 +312,13 @@ def _read_bond(ring_atom, atom, k, pts, xy, up, v_is_up, centre, bond) -> tuple[
     # the axial bond of a V pointing up goes up, and of one pointing down goes down: measured
     # against that ray, a steep equatorial bond going the other way is not mistaken for axial
     ray = up if v_is_up else (-up[0], -up[1])
-    off_ray = math.degrees(math.acos(max(-1.0, min(1.0, _dot(v, ray)))))
+    off_ray = math.degrees(math.acos(max(-1.0, min(1.0, dot(v, ray)))))
     off_axis = min(off_ray, 180.0 - off_ray)
     # the equatorial reference: the two ring bonds one step away, parallel in a chair drawing
-    d1 = _unit(pts[(k + 2) % 6], pts[(k + 1) % 6])
-    d2 = _unit(pts[(k - 2) % 6], pts[(k - 1) % 6])
+    d1 = unit(pts[(k + 2) % 6], pts[(k + 1) % 6])
+    d2 = unit(pts[(k - 2) % 6], pts[(k - 1) % 6])
     reference = (d1[0] + d2[0], d1[1] + d2[1])
-    off_eq = _line_angle(v, reference) if math.hypot(*reference) > 1e-6 else 90.0
+    off_eq = line_angle(v, reference) if math.hypot(*reference) > 1e-6 else 90.0
     notes: list[str] = []
     what = f"ring atom {ring_atom + 1}: bond to atom {atom + 1}"
     side: str | None
@@ -396,40 +396,3 @@ def _conflicts(mol: Chem.Mol, ring: ChairRing, faces: dict[int, str], by_chair: 
                 f"ring atom {s.ring_atom + 1}: {source} puts atom {s.atom + 1} on the other face from this chair"
             )
     return out
-
-
-def _opposite_bonds_parallel(pts) -> bool:
-    for k in range(3):
-        a = _unit(pts[(k + 1) % 6], pts[k])
-        b = _unit(pts[(k + 4) % 6], pts[(k + 3) % 6])
-        if _line_angle(a, b) > PARALLEL:
-            return False
-    return True
-
-
-def _centroid(pts) -> tuple[float, float]:
-    return sum(p[0] for p in pts) / len(pts), sum(p[1] for p in pts) / len(pts)
-
-
-def _dist(p, q) -> float:
-    return math.hypot(p[0] - q[0], p[1] - q[1])
-
-
-def _dot(p, q) -> float:
-    return p[0] * q[0] + p[1] * q[1]
-
-
-def _unit(p, q) -> tuple[float, float]:
-    d = math.hypot(p[0] - q[0], p[1] - q[1]) or 1.0
-    return (p[0] - q[0]) / d, (p[1] - q[1]) / d
-
-
-def _line_angle(v, w) -> float:
-    """Angle in degrees between the lines along v and w (0..90)."""
-    n = math.hypot(*v) * math.hypot(*w)
-    c = abs(_dot(v, w)) / n if n else 0.0
-    return math.degrees(math.acos(min(1.0, c)))
-
-
-def _signed_area(pts) -> float:
-    return 0.5 * sum(pts[k - 1][0] * pts[k][1] - pts[k][0] * pts[k - 1][1] for k in range(len(pts)))
