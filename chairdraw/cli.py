@@ -123,6 +123,11 @@ def _parser() -> argparse.ArgumentParser:
     b.add_argument(
         "--timeout", type=float, default=120.0, metavar="S", help="seconds per record before it is an error (120)"
     )
+    b.add_argument(
+        "--no-figures-pdf",
+        action="store_true",
+        help="skip figures.pdf (each record's PDF page costs about as much as the rest of its work)",
+    )
     figure_options(b)
     energy_options(b)
 

@@ -240,6 +240,8 @@ def test_cli_batch(tmp_path, capsys):
     assert "2 records" in err and "no-chair-ring 1" in err and "ok 1" in err
     assert main(["batch", str(smi), "--out", str(tmp_path / "o"), "--jobs", "1", "--fail-on", "error", "--quiet"]) == 0
     assert capsys.readouterr().err == ""
+    assert main(["batch", str(smi), "--out", str(tmp_path / "p"), "--jobs", "1", "--no-figures-pdf", "--quiet"]) == 1
+    assert not (tmp_path / "p" / "figures.pdf").exists() and (tmp_path / "p" / "index.html").exists()
     assert main(["batch", str(smi), "--out", str(tmp_path / "o"), "--formats", "svg,gif"]) == 2
     assert "--formats" in capsys.readouterr().err
     assert main(["batch", str(tmp_path / "missing.smi"), "--out", str(tmp_path / "o")]) == 2
