@@ -93,7 +93,7 @@ def safe_stem(record_id: str, taken: set[str]) -> str:
     """A file name for an id: letters, digits, '-', '_' and '.' only, no leading dot, at most
     MAX_STEM characters, unique (case-insensitively, for case-blind file systems) among ``taken``."""
     text = unicodedata.normalize("NFKD", record_id).encode("ascii", "ignore").decode("ascii")
-    stem = "".join(c if c.isalnum() or c in "-_." else "_" for c in text).strip("._") or "record"
+    stem = "".join(c if c.isalnum() or c in "-_." else "_" for c in text).strip("._-") or "record"
     stem = stem[:MAX_STEM]
     candidate, n = stem, 1
     while candidate.lower() in taken:
@@ -231,7 +231,7 @@ def run_rows(tasks: Iterator[Task | Row], folder: str, options: BatchOptions, jo
         return
     window = max(2, jobs * 4)
     pending: collections.deque[tuple[Task | Row, Future]] = collections.deque()
-    pool = ProcessPoolExecutor(max_workers=jobs)
+    pool = ProcessPoolExecutor(max_workers=jobs, initializer=_worker_start)
     try:
         source = iter(tasks)
         exhausted = False
@@ -258,7 +258,7 @@ def run_rows(tasks: Iterator[Task | Row], folder: str, options: BatchOptions, jo
                 pending.clear()
                 for t in stuck:  # alone, each in a fresh worker: the one that breaks it is named
                     yield t if isinstance(t, Row) else _alone(t, folder, options, exc)
-                pool = ProcessPoolExecutor(max_workers=jobs)
+                pool = ProcessPoolExecutor(max_workers=jobs, initializer=_worker_start)
                 continue
             pending.popleft()
             yield row
@@ -266,9 +266,14 @@ def run_rows(tasks: Iterator[Task | Row], folder: str, options: BatchOptions, jo
         _stop(pool)
 
 
+def _worker_start() -> None:
+    """Ctrl-C is the main process's to handle: it stops the pool; a worker would only print."""
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+
+
 def _alone(task: Task, folder: str, options: BatchOptions, cause: BaseException) -> Row:
     record, stem, registered = task
-    single = ProcessPoolExecutor(max_workers=1)
+    single = ProcessPoolExecutor(max_workers=1, initializer=_worker_start)
     try:
         return single.submit(process_record, record, stem, folder, options, registered).result(
             timeout=options.timeout + 60 if options.timeout > 0 else None

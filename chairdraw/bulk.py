@@ -42,6 +42,8 @@ class Summary:
     reused: int
     folder: str
     failed: int  # rows counted as failures under the chosen --fail-on
+    registry_duplicates: tuple[str, ...] = ()  # ids registered twice (the first entry was used)
+    figures_pdf: bool = False
 
     def to_dict(self) -> dict:
         return asdict(self)
@@ -55,7 +57,7 @@ def count_records(path, kind: str | None = None) -> int | None:
             if kind == "sdf":
                 n, content = 0, False
                 for line in handle:
-                    if line.rstrip("\r\n") == "$$$$":
+                    if line.rstrip() == "$$$$":
                         n, content = n + 1, False
                     elif line.strip():
                         content = True
@@ -80,13 +82,15 @@ def run_batch(
     registry_kind: str | None = None,
     fail_on: str = "any",
     progress: Callable[[int, int | None, float], None] | None = None,
+    registry_id_field: str | None = None,
 ) -> Summary:
     options = options or BatchOptions()
     if fail_on not in FAIL_ON:
         raise UsageError(f"--fail-on must be one of {', '.join(FAIL_ON)}, not {fail_on!r}")
     kind = kind_of(source, kind)
-    if not os.path.isfile(source):
-        raise InputError(f"cannot open {str(source)!r}: no such file")
+    for path in (source, registry):
+        if path is not None and not os.path.isfile(path):
+            raise InputError(f"cannot open {str(path)!r}: no such file")
     folder = Path(out)
     work = folder / ".work"
     try:
@@ -94,28 +98,44 @@ def run_batch(
     except OSError as exc:
         raise UsageError(f"cannot make the output folder {str(folder)!r}: {exc.strerror}") from None
     started = time.perf_counter()
+    # what the rows depend on: an edited input or registry, other columns or options: nothing kept
     fingerprint = json.dumps(
-        {"options": repr(options), "source": os.path.abspath(source), "registry": str(registry)}, sort_keys=True
+        {
+            "options": repr(options),
+            "source": _file_state(source),
+            "registry": _file_state(registry) if registry is not None else None,
+            "reading": [kind, id_field, structure_column, name_column, registry_kind, registry_id_field],
+        },
+        sort_keys=True,
     )
-    previous = _previous_rows(folder, fingerprint) if resume else {}
+    previous = _previous_rows(folder, fingerprint) if resume else iter(())
     (work / "options.json").write_text(fingerprint, encoding="utf-8")
-    index = Registry(registry, work / "registry.sqlite", registry_kind) if registry is not None else None
+    for stale in ("figures.pdf", "index.html", "report.csv"):  # written anew at the end, or not at all
+        (folder / stale).unlink(missing_ok=True)
+    index = Registry(registry, work / "registry.sqlite", registry_kind, registry_id_field) if registry else None
     total = count_records(source, kind)
     reused = 0
 
     def tasks() -> Iterator[Task | Row]:
         nonlocal reused
-        taken: set[str] = set()
+        taken: set[str] = set(RESERVED)
+        old = next(previous, None)
         for record in iter_records(source, kind, id_field, structure_column, name_column):
             stem = safe_stem(record.id, taken)
-            old = previous.get(record.position)
-            if old is not None and old.id == record.id and _complete(old, folder, options):
+            while old is not None and old.position < record.position:  # both files are in input order
+                old = next(previous, None)
+            if (
+                old is not None
+                and old.position == record.position
+                and old.id == record.id
+                and _complete(old, folder, options)
+            ):
                 reused += 1
                 yield old
                 continue
             registered = None
             if index is not None:
-                registered = index.get(record.id) or ("", MISSING)
+                registered = (None if record.anonymous else index.get(record.id)) or ("", MISSING)
             yield (record, stem, registered)
 
     by_status: collections.Counter = collections.Counter()
@@ -135,20 +155,37 @@ def run_batch(
                 if progress is not None:
                     progress(n, total, started)
     finally:
+        duplicates = index.duplicates if index is not None else ()
         if index is not None:
             index.close()
+        (work / "previous.jsonl").unlink(missing_ok=True)
     write_csv(folder)
     if options.pages:
         write_pdf(folder)
     write_index(folder)
-    return Summary(n, dict(by_status), dict(by_verdict), time.perf_counter() - started, reused, str(folder), failed)
+    return Summary(
+        n, dict(by_status), dict(by_verdict), time.perf_counter() - started, reused, str(folder), failed,
+        tuple(duplicates), (folder / "figures.pdf").exists(),
+    )  # fmt: skip
+
+
+RESERVED = {
+    "figures", "report", "index", "con", "prn", "aux", "nul",
+    *(f"com{k}" for k in range(1, 10)), *(f"lpt{k}" for k in range(1, 10)),
+}  # fmt: skip  # our own outputs, and names Windows refuses
+
+
+def _file_state(path) -> list:
+    stat = os.stat(path)
+    return [os.path.abspath(path), stat.st_size, stat.st_mtime_ns]
 
 
 def _failed(row: Row, fail_on: str, checking: bool) -> int:
     if fail_on == "none":
         return 0
     bad_row = row.status != "ok"
-    mismatch = checking and row.status != "error" and row.verdict != "match"
+    # in a check run, a record that could not be checked (no registered structure) is a mismatch
+    mismatch = checking and ((row.status != "error" and row.verdict != "match") or row.stage == "registry")
     if fail_on == "error":
         return int(row.status == "error")
     if fail_on == "mismatch":
@@ -156,22 +193,25 @@ def _failed(row: Row, fail_on: str, checking: bool) -> int:
     return int(bad_row or mismatch)
 
 
-def _previous_rows(folder: Path, fingerprint: str) -> dict[int, Row]:
-    """Rows of an earlier run with the same options and input, by position; {} otherwise."""
+def _previous_rows(folder: Path, fingerprint: str) -> Iterator[Row]:
+    """Rows of an earlier run with the same options and input, in input order, read one at a time
+    (the old report is moved aside first, since the new one is written in its place)."""
     try:
         if (folder / ".work" / "options.json").read_text(encoding="utf-8") != fingerprint:
-            return {}
-        out = {}
-        with open(folder / "report.jsonl", encoding="utf-8") as handle:
-            for line in handle:
-                try:
-                    row = Row.from_dict(json.loads(line))
-                except (ValueError, KeyError, TypeError):
-                    break  # a line cut short by the interruption: everything after it is redone
-                out[row.position] = row
-        return out
+            return iter(())
+        os.replace(folder / "report.jsonl", folder / ".work" / "previous.jsonl")
     except OSError:
-        return {}
+        return iter(())
+    return _read_rows(folder / ".work" / "previous.jsonl")
+
+
+def _read_rows(path: Path) -> Iterator[Row]:
+    with open(path, encoding="utf-8") as handle:
+        for line in handle:
+            try:
+                yield Row.from_dict(json.loads(line))
+            except (ValueError, KeyError, TypeError):
+                return  # a line cut short by the interruption: everything after it is redone
 
 
 def _complete(row: Row, folder: Path, options: BatchOptions) -> bool:
@@ -216,7 +256,7 @@ def write_csv(folder: str | os.PathLike) -> None:
         writer = csv.DictWriter(handle, fieldnames=CSV_COLUMNS)
         writer.writeheader()
         for row in rows_of(folder):
-            writer.writerow({k: _no_formula(v) for k, v in csv_cells(row).items()})
+            writer.writerow({k: v if k == "files" else _no_formula(v) for k, v in csv_cells(row).items()})
     os.replace(path.with_name("report.csv.part"), path)
 
 
@@ -252,7 +292,10 @@ def write_index(folder: str | os.PathLike) -> None:
     from the input is escaped, so an id or a label holding markup stays text."""
     folder = Path(folder)
     part = folder / "index.html.part"
-    e = html.escape
+
+    def e(text: str) -> str:  # escaped, and control characters (NUL ...) shown as U+FFFD
+        return html.escape("".join(c if c >= " " or c in "\n\t" else "\ufffd" for c in str(text)))
+
     with open(part, "w", encoding="utf-8") as out:
         out.write(_HEAD)
         for row in rows_of(folder):
@@ -312,9 +355,14 @@ def summary_lines(summary: Summary) -> list[str]:
     lines = [
         f"{summary.rows} records in {elapsed_text(summary.seconds)}"
         + (f" ({summary.reused} kept from the earlier run)" if summary.reused else "")
-        + f"; report, figures.pdf and index.html in {summary.folder}",
+        + f"; report{', figures.pdf' if summary.figures_pdf else ''} and index.html in {summary.folder}",
         "  status: " + ", ".join(f"{k} {v}" for k, v in sorted(summary.by_status.items())),
     ]
     if summary.by_verdict:
         lines.append("  verdicts: " + ", ".join(f"{k} {v}" for k, v in sorted(summary.by_verdict.items())))
+    if summary.registry_duplicates:
+        shown = ", ".join(summary.registry_duplicates[:5]) + (" ..." if len(summary.registry_duplicates) > 5 else "")
+        lines.append(
+            f"  registry: {len(summary.registry_duplicates)} id(s) registered twice, the first entry used: {shown}"
+        )
     return lines

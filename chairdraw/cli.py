@@ -28,6 +28,7 @@ from .report import DISCLAIMER, check_line, format_analysis, format_check, summa
 from .verify import CAVEAT, Checker
 
 OK, MISMATCH, BAD_INPUT = 0, 1, 2
+INTERRUPTED = 130  # the shell's code for a run stopped by Ctrl-C
 
 
 class _Parser(argparse.ArgumentParser):
@@ -122,6 +123,9 @@ def _parser() -> argparse.ArgumentParser:
     b.add_argument("--name-column", metavar="NAME", help="CSV column with a name or caption (name/caption)")
     b.add_argument(
         "--timeout", type=float, default=120.0, metavar="S", help="seconds per record before it is an error (120)"
+    )
+    b.add_argument(
+        "--registry-id-field", metavar="NAME", help="SDF data field or CSV column holding the registry's ids"
     )
     b.add_argument(
         "--no-figures-pdf",
@@ -258,6 +262,8 @@ def _batch(args) -> int:
         raise UsageError(f"--formats takes svg, png and pdf, comma-separated; not {args.formats!r}")
     if args.jobs < 1:
         raise UsageError(f"--jobs must be 1 or more, not {args.jobs}")
+    if not 0 < args.timeout <= 86400:
+        raise UsageError(f"--timeout must be more than 0 and at most 86400 seconds, not {args.timeout:g}")
     options = BatchOptions(
         formats=formats,
         temperature=args.temperature,
@@ -271,10 +277,17 @@ def _batch(args) -> int:
         pages=not args.no_figures_pdf,
     )
     progress = None if args.quiet else _Progress(sys.stderr)
-    summary = run_batch(
-        args.input, args.out, options, args.jobs, args.resume, args.against, args.input_kind, args.id_field,
-        args.structure_column, args.name_column, args.registry_kind, args.fail_on, progress,
-    )  # fmt: skip
+    try:
+        summary = run_batch(
+            args.input, args.out, options, args.jobs, args.resume, args.against, args.input_kind, args.id_field,
+            args.structure_column, args.name_column, args.registry_kind, args.fail_on, progress,
+            args.registry_id_field,
+        )  # fmt: skip
+    except KeyboardInterrupt:
+        if progress is not None:
+            progress.finish()
+        print(f"chairdraw: batch interrupted; rerun with --resume to keep what {args.out} holds", file=sys.stderr)
+        return INTERRUPTED
     if progress is not None:
         progress.finish()
         for line in summary_lines(summary):

@@ -292,7 +292,7 @@ def split_sdf(text: str) -> list[str]:
     records: list[str] = []
     current: list[str] = []
     for line in text.splitlines(keepends=True):
-        if line.rstrip("\r\n") == "$$$$":
+        if line.rstrip() == "$$$$":
             records.append("".join(current))
             current = []
         else:

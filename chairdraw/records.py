@@ -43,6 +43,7 @@ class Record:
     format: str | None  # 'molfile' for an SDF record; None: let read.py sniff it
     name: str | None = None  # a name or caption given with the record
     problem: str | None = None  # a record that could not be cut out of the file, and why
+    anonymous: bool = False  # the id is made up ('record N'): it names nothing in another file
 
 
 def kind_of(path: str | os.PathLike, kind: str | None = None) -> str:
@@ -66,7 +67,8 @@ def iter_records(
     """The records of a file, one at a time, in file order."""
     kind = kind_of(path, kind)
     try:
-        handle = open(path, encoding="utf-8", errors="replace", newline="")
+        # utf-8-sig: a byte-order mark (as spreadsheet programs save) is not part of the first line
+        handle = open(path, encoding="utf-8-sig", errors="replace", newline="")
     except OSError as exc:
         raise InputError(f"cannot open {str(path)!r}: {exc.strerror}") from None
     with handle:
@@ -83,7 +85,7 @@ def _sdf(handle, id_field: str | None) -> Iterator[Record]:
     start = 1
     position = 0
     for number, line in enumerate(handle, start=1):
-        if line.rstrip("\r\n") == "$$$$":
+        if line.rstrip() == "$$$$":
             position += 1
             yield _sdf_record(lines, position, start, id_field)
             lines = []
@@ -99,10 +101,10 @@ def _sdf_record(lines: list[str], position: int, start: int, id_field: str | Non
     text = "".join(lines)
     title = lines[0].strip() if lines else ""
     fields = _data_fields(lines)
-    record_id = (fields.get(id_field) if id_field else None) or title or f"record {position}"
+    record_id = (fields.get(id_field) if id_field else None) or title
     name = fields.get("name") or fields.get("caption")
     problem = None if "M  END" in text else "no 'M  END' line: the molfile block is truncated"
-    return Record(position, start, record_id, text, "molfile", name, problem)
+    return Record(position, start, record_id or f"record {position}", text, "molfile", name, problem, not record_id)
 
 
 def _data_fields(lines: list[str]) -> dict[str, str]:
@@ -123,22 +125,34 @@ def _data_fields(lines: list[str]) -> dict[str, str]:
 
 
 def _smiles(handle) -> Iterator[Record]:
+    """'SMILES id [name]' per line: tab-separated fields when the line has tabs (an id may then
+    hold spaces), else words. A CXSMILES block (|...|) after the SMILES belongs to it."""
     position = 0
     for number, line in enumerate(handle, start=1):
         text = line.strip()
         if not text or text.startswith("#"):
             continue
-        parts = text.split(None, 1)
-        position += 1
-        if position == 1 and parts[0].lower() in ("smiles", "structure"):
-            position = 0
+        if "\t" in text:
+            fields = [f.strip() for f in text.split("\t")]
+        else:
+            fields = text.split()
+        structure, rest = fields[0], fields[1:]
+        if rest and rest[0].startswith("|"):  # CXSMILES extensions, perhaps with spaces inside
+            words = text.split(None, 1)[1]
+            close = words.find("|", 1)
+            structure = f"{structure} {words[: close + 1]}" if close > 0 else structure
+            rest = words[close + 1 :].split("\t" if "\t" in text else None) if close > 0 else []
+            rest = [r.strip() for r in rest if r.strip()]
+        if position == 0 and structure.lower() in ("smiles", "structure"):
             continue  # a header line
-        record_id = parts[1].split()[0] if len(parts) > 1 and parts[1].split() else f"record {position}"
-        name = parts[1][len(record_id) :].strip() or None if len(parts) > 1 else None
-        yield Record(position, number, record_id, parts[0], None, name)
+        position += 1
+        record_id = rest[0] if rest else ""
+        name = " ".join(rest[1:]) or None
+        yield Record(position, number, record_id or f"record {position}", structure, None, name, None, not record_id)
 
 
 def _table(handle, delimiter: str, id_column, structure_column, name_column) -> Iterator[Record]:
+    csv.field_size_limit(2**31 - 1)  # a molfile in a cell is longer than the default 128 kB
     reader = csv.reader(handle, delimiter=delimiter)
     try:
         header = next(reader)
@@ -164,22 +178,24 @@ def _table(handle, delimiter: str, id_column, structure_column, name_column) -> 
     i = find(id_column, ("id", "compound_id", "registry_id", "regno"), "id", False)
     n = find(name_column, _NAME_COLUMNS, "name", False)
     position = 0
+    start = reader.line_num + 1
     for row in reader:
+        first_line, start = start, reader.line_num + 1  # a quoted cell may span lines
         if not any(cell.strip() for cell in row):
             continue
         position += 1
-        line = reader.line_num
 
         def cell(k: int | None, row: list[str] = row) -> str:
             return row[k].strip() if k is not None and k < len(row) else ""
 
-        record_id = cell(i) or f"record {position}"
+        record_id = cell(i)
         problem = (
             None
             if s is not None and s < len(row)
             else f"the row has {len(row)} cells; the structure is in column {s + 1 if s is not None else '?'}"
         )
-        yield Record(position, line, record_id, cell(s), None, cell(n) or None, problem)
+        yield Record(position, first_line, record_id or f"record {position}", cell(s), None, cell(n) or None, problem,
+                     not record_id)  # fmt: skip
 
 
 class Registry:
@@ -187,6 +203,8 @@ class Registry:
     SQLite file (not held in memory), so a registry of millions costs disk, not memory."""
 
     def __init__(self, path: str | os.PathLike, index: str | os.PathLike, kind: str | None = None, id_field=None):
+        index = Path(index)
+        index.unlink(missing_ok=True)
         self.path = str(path)
         self._db = sqlite3.connect(str(index))
         self._db.execute("DROP TABLE IF EXISTS registry")
@@ -194,6 +212,8 @@ class Registry:
         duplicates: list[str] = []
         with self._db:
             for record in iter_records(path, kind, id_field):
+                if record.anonymous:
+                    continue  # a made-up id ('record N') must not meet another file's made-up id
                 try:
                     self._db.execute(
                         "INSERT INTO registry VALUES (?, ?, ?, ?)",

@@ -267,3 +267,70 @@ def test_the_figure_set_renders_each_page_as_its_own_pdf(tmp_path):
         own = pdfium.PdfDocument(str(page))[0].render(scale=1).to_pil()
         assert merged[k].render(scale=1).to_pil().tobytes() == own.tobytes(), page.name
     assert write_pdf_set([], tmp_path / "empty.pdf") == 0
+
+
+def test_awkward_files_still_give_one_row_per_record(tmp_path):
+    """Found in review: '$$$$ ' with a trailing blank, a byte-order mark, tab-separated ids with
+    spaces and a CXSMILES block, a 200,000-character CSV cell."""
+    block = _block(GOOD, "T1")
+    sdf = tmp_path / "ws.sdf"
+    sdf.write_text(
+        block + "$$$$ \n" + block.replace("T1", "T2", 1) + "$$$$\t\n" + block.replace("T1", "T3", 1) + "$$$$\n"
+    )
+    assert [r.id for r in iter_records(sdf)] == ["T1", "T2", "T3"]
+    table = tmp_path / "bom.csv"
+    table.write_bytes("\ufeffsmiles,id\n".encode() + f"{GOOD},B1\n".encode())
+    assert [(r.id, r.text) for r in iter_records(table)] == [("B1", GOOD)]
+    smi = tmp_path / "tabs.smi"
+    smi.write_text(f"{GOOD}\tCompound 1\tcis alcohol\n{GOOD} |&1:1,4| CX1 racemic\n")
+    got = [(r.id, r.text, r.name) for r in iter_records(smi)]
+    assert got == [("Compound 1", GOOD, "cis alcohol"), ("CX1", f"{GOOD} |&1:1,4|", "racemic")]
+    huge = tmp_path / "huge.csv"
+    huge.write_text("smiles,id\n" + "C" * 200_000 + ",H1\n" + f"{GOOD},H2\n")
+    run_batch(huge, tmp_path / "h", jobs=1)
+    assert [r["id"] for r in _rows(tmp_path / "h")] == ["H1", "H2"]
+
+
+def test_output_names_and_stale_outputs(tmp_path):
+    smi = tmp_path / "n.smi"
+    smi.write_text(f"{GOOD} figures\n{GOOD} CON\n{GOOD} -1\n")
+    run_batch(smi, tmp_path / "o", BatchOptions(formats=("svg", "pdf")), jobs=1)
+    names = [r["files"]["pdf"] for r in _rows(tmp_path / "o")]
+    assert names == ["figures-2.pdf", "CON-2.pdf", "1.pdf"]
+    assert len(PdfReader(str(tmp_path / "o" / "figures.pdf")).pages) == 3
+    bad = tmp_path / "bad.smi"
+    bad.write_text("C1CC( X\n")
+    run_batch(bad, tmp_path / "o", jobs=1)  # no ok record now: the old figure set must go
+    assert not (tmp_path / "o" / "figures.pdf").exists()
+
+
+def test_resume_redoes_records_after_the_input_changed(tmp_path):
+    smi = tmp_path / "e.smi"
+    smi.write_text(f"{GOOD} E1\nC1CC( E2\n")
+    run_batch(smi, tmp_path / "o", jobs=1)
+    assert [r["status"] for r in _rows(tmp_path / "o")] == ["ok", "error"]
+    smi.write_text(f"{GOOD} E1\n{GOOD} E2\n")
+    again = run_batch(smi, tmp_path / "o", jobs=1, resume=True)
+    assert again.reused == 0 and [r["status"] for r in _rows(tmp_path / "o")] == ["ok", "ok"]
+
+
+def test_registry_keys_made_up_ids_and_duplicates(tmp_path):
+    drawing = chair_molblock(chairdraw.analyze(GOOD))
+    lines = drawing.splitlines()
+    untitled = "\n".join([""] + lines[1:]) + "\n"
+    sdf = tmp_path / "d.sdf"
+    sdf.write_text(untitled + "$$$$\n" + drawing.replace("chair", "R-7", 1) + "$$$$\n")
+    reg = tmp_path / "reg.smi"
+    reg.write_text(f"{GOOD}\nC[C@H]1CC[C@H](O)CC1 R-7\n{GOOD} R-7\n")  # an untitled line; R-7 twice
+    summary = run_batch(sdf, tmp_path / "o", jobs=1, registry=reg, fail_on="mismatch")
+    rows = _rows(tmp_path / "o")
+    assert rows[0]["stage"] == "registry"  # 'record 1' is not the registry's untitled line 1
+    assert rows[1]["verdict"] == "diastereomer"  # the first R-7 entry is the one used
+    assert summary.registry_duplicates == ("R-7",)
+    assert summary.failed == 2  # the unregistered record counts as a mismatch too
+    fielded = tmp_path / "f.sdf"
+    fielded.write_text(drawing.replace("M  END", "M  END\n>  <REGNO>\nQ-1\n", 1) + "$$$$\n")
+    reg2 = tmp_path / "reg2.sdf"
+    reg2.write_text(_block(GOOD, "whatever") + ">  <REGNO>\nQ-1\n\n$$$$\n")
+    run_batch(fielded, tmp_path / "p", jobs=1, registry=reg2, id_field="REGNO", registry_id_field="REGNO")
+    assert _rows(tmp_path / "p")[0]["verdict"] == "match"
