@@ -224,9 +224,7 @@ def _complete(row: Row, folder: Path, options: BatchOptions) -> bool:
 
 
 def rows_of(folder: str | os.PathLike) -> Iterator[Row]:
-    with open(Path(folder) / "report.jsonl", encoding="utf-8") as handle:
-        for line in handle:
-            yield Row.from_dict(json.loads(line))
+    return _read_rows(Path(folder) / "report.jsonl")
 
 
 def csv_cells(row: Row) -> dict:
